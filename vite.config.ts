@@ -19,7 +19,7 @@ export default defineConfig({
     host: '127.0.0.1',
     port: 5173,
     strictPort: true,
-    proxy: { '/api': `http://127.0.0.1:${apiPort}`, '/verify': `http://127.0.0.1:${apiPort}` },
+    proxy: { '/api': `http://127.0.0.1:${apiPort}` },
   },
   preview: { host: '127.0.0.1' },
   build: { outDir: 'dist', chunkSizeWarningLimit: 800 },

@@ -1,0 +1,45 @@
+import express from 'express'
+import helmet from 'helmet'
+import { pinoHttp } from 'pino-http'
+import { existsSync } from 'node:fs'
+import { resolve } from 'node:path'
+import { env } from './config/env'
+import { logger } from './lib/logger'
+import { apiRouters } from './api'
+import { errorHandler, notFoundHandler } from './middleware/errorHandler'
+
+/** Builds the Express app (no listen): API under /api, the built client for everything else. */
+export function createApp() {
+  const app = express()
+  app.disable('x-powered-by')
+  app.set('trust proxy', 'loopback')
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'default-src': ["'self'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'script-src': ["'self'"],
+          'upgrade-insecure-requests': null,
+        },
+      },
+      // Served over plain HTTP on loopback; HSTS belongs to the TLS proxy in front.
+      strictTransportSecurity: false,
+    }),
+  )
+  app.use(pinoHttp({ logger, autoLogging: env.NODE_ENV !== 'test' }))
+  app.use('/api', express.json({ limit: '2mb' }))
+  for (const { basePath, router } of apiRouters) app.use(basePath, router)
+  app.use('/api', notFoundHandler)
+
+  const dist = resolve(env.CLIENT_DIST)
+  if (existsSync(dist)) {
+    app.use(express.static(dist, { index: false, maxAge: '1h' }))
+    // The client routes in the browser: every other GET answers the app shell.
+    app.get(/.*/, (_req, res) => res.sendFile(resolve(dist, 'index.html')))
+  }
+  app.use(notFoundHandler)
+  app.use(errorHandler)
+  return app
+}

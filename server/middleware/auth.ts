@@ -1,0 +1,71 @@
+import passport from 'passport'
+import jwt from 'jsonwebtoken'
+import { ExtractJwt, Strategy as JwtStrategy } from 'passport-jwt'
+import type { NextFunction, Request, Response } from 'express'
+import { env } from '../config/env'
+import { HttpError } from '../lib/httpError'
+import { User } from '../db/models'
+import type { SessionUser } from '../../shared/api/auth'
+
+interface TokenClaims {
+  sub: string
+  tv: number
+}
+
+passport.use(
+  new JwtStrategy(
+    {
+      jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
+      secretOrKey: env.jwtSecret,
+      algorithms: ['HS256'],
+    },
+    (claims: TokenClaims, done: (err: unknown, user?: User | false) => void) => {
+      User.findByPk(Number(claims.sub))
+        .then((user) => {
+          // A deactivated user, or a token issued before a password reset, no longer signs in.
+          if (!user || !user.active || user.tokenVersion !== claims.tv) return done(null, false)
+          return done(null, user)
+        })
+        .catch((err: unknown) => done(err))
+    },
+  ),
+)
+
+export function signToken(user: User): string {
+  return jwt.sign({ tv: user.tokenVersion }, env.jwtSecret, {
+    algorithm: 'HS256',
+    subject: String(user.id),
+    expiresIn: env.JWT_TTL_SECONDS,
+  })
+}
+
+export function toSessionUser(user: User): SessionUser {
+  return {
+    id: user.id,
+    email: user.email,
+    name: user.name,
+    role: user.role,
+    customerId: user.customerId,
+    thicknessUnit: user.thicknessUnit,
+    temperatureUnit: user.temperatureUnit,
+    areaUnit: user.areaUnit,
+  }
+}
+
+/** Puts the signed-in user on req.user, or answers 401. */
+export function authenticate(req: Request, res: Response, next: NextFunction) {
+  passport.authenticate('jwt', { session: false }, (err: unknown, user: User | false) => {
+    if (err) return next(err)
+    if (!user) return next(new HttpError(401, 'unauthenticated', 'Sign in again: your session is missing or has expired'))
+    req.user = user
+    next()
+  })(req, res, next)
+}
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    // eslint-disable-next-line @typescript-eslint/no-empty-object-type
+    interface User extends InstanceType<typeof import('../db/models/User').User> {}
+  }
+}

@@ -1,0 +1,4 @@
+/** The one error body every API failure answers with. */
+export interface ApiErrorBody {
+  error: { code: string; message: string; details?: unknown }
+}
