@@ -54,6 +54,18 @@ export default defineConfig({
           hookTimeout: 30000,
         },
       },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.e2e.test.ts'],
+          environment: 'node',
+          globalSetup: ['tests/e2e/support/globalSetup.ts'],
+          fileParallelism: false,
+          testTimeout: 60000,
+          hookTimeout: 120000,
+        },
+      },
     ],
   },
 })
