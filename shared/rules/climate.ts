@@ -55,7 +55,13 @@ export function dewPointC(airTempC: number, relativeHumidityPct: number): number
 export function checkClimate(reading: ClimateReading, limits: ClimateLimits = {}): ClimateCheck {
   const dp = dewPointC(reading.airTempC, reading.relativeHumidityPct)
   const steelTempC = requireRange(reading.steelTempC, 'steelTempC', -60, 300, ' °C')
-  const minMarginC = requireRange(limits.minMarginC ?? DEFAULT_MIN_MARGIN_C, 'minMarginC', 0, 30, ' °C')
+  const minMarginC = requireRange(
+    limits.minMarginC ?? DEFAULT_MIN_MARGIN_C,
+    'minMarginC',
+    0,
+    30,
+    ' °C',
+  )
   const maxRh = requireRange(
     limits.maxRelativeHumidityPct ?? DEFAULT_MAX_RH_PCT,
     'maxRelativeHumidityPct',

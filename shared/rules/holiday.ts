@@ -53,7 +53,11 @@ export function holidayVoltageDerivation(thicknessUm: number, rule: HolidayVolta
 }
 
 /** |used − required| ≤ tolerancePct % of required (spec `voltageTolerancePct`, default 5 % [P]). */
-export function voltageWithinTolerance(usedV: number, requiredV: number, tolerancePct: number): boolean {
+export function voltageWithinTolerance(
+  usedV: number,
+  requiredV: number,
+  tolerancePct: number,
+): boolean {
   const used = requirePositive(usedV, 'voltageUsedV', 40000, ' V')
   const req = requirePositive(requiredV, 'requiredVoltageV', 40000, ' V')
   return atMost(Math.abs(used - req), (req * tolerancePct) / 100)
@@ -69,7 +73,10 @@ export interface HolidayFinding {
 }
 
 /** Holidays still open: found and not repaired, or repaired but not re-tested. */
-export function openHolidays(holidays: HolidayFinding[]): { unrepaired: number; notRetested: number } {
+export function openHolidays(holidays: HolidayFinding[]): {
+  unrepaired: number
+  notRetested: number
+} {
   let unrepaired = 0
   let notRetested = 0
   for (const h of holidays) {

@@ -15,12 +15,18 @@ export const ISO19840_FLOOR_FACTOR = 0.8
 export const ISO19840_MAX_BELOW_NOMINAL_SHARE = 0.2
 
 /** Profile correction values when the gauge was adjusted on smooth steel [M — a setting]. */
-export const ISO19840_PROFILE_CORRECTION_UM = { fine: 10, medium: 25, coarse: 40, unknown: 25 } as const
+export const ISO19840_PROFILE_CORRECTION_UM = {
+  fine: 10,
+  medium: 25,
+  coarse: 40,
+  unknown: 25,
+} as const
 export type ProfileGradeIso = keyof typeof ISO19840_PROFILE_CORRECTION_UM
 
 export function iso19840ProfileCorrectionUm(profile: ProfileGradeIso): number {
   const v = ISO19840_PROFILE_CORRECTION_UM[profile]
-  if (v === undefined) throw new RuleInputError('profile', 'must be fine, medium, coarse or unknown')
+  if (v === undefined)
+    throw new RuleInputError('profile', 'must be fine, medium, coarse or unknown')
   return v
 }
 
@@ -30,7 +36,13 @@ export function iso19840ProfileCorrectionUm(profile: ProfileGradeIso): number {
  */
 export function iso19840MinReadings(inspectionAreaM2: number): number {
   const a = requirePositive(inspectionAreaM2, 'inspectionAreaM2', 1e8, ' m²')
-  const steps: [number, number][] = [[1, 5], [3, 10], [10, 15], [30, 20], [100, 30]]
+  const steps: [number, number][] = [
+    [1, 5],
+    [3, 10],
+    [10, 15],
+    [30, 20],
+    [100, 30],
+  ]
   for (const [limit, readings] of steps) if (atMost(a, limit)) return readings
   return 30 + 10 * Math.ceil((a - 100) / 100 - 1e-9)
 }
@@ -75,7 +87,13 @@ export function evaluateIso19840(input: Iso19840Input): Iso19840Result {
       ? ISO19840_DEFAULT_MAX_FACTOR * nominal
       : requireThicknessUm(input.maxUm, 'maxUm')
   if (maxAllowedUm < nominal) throw new RuleInputError('maxUm', 'must not be below nominalUm')
-  const correction = requireRange(input.profileCorrectionUm ?? 0, 'profileCorrectionUm', 0, 200, ' µm')
+  const correction = requireRange(
+    input.profileCorrectionUm ?? 0,
+    'profileCorrectionUm',
+    0,
+    200,
+    ' µm',
+  )
   const raw = requireArray<number>(input.readingsUm, 'readingsUm')
   raw.forEach((r, i) => requireThicknessUm(r, `readingsUm[${i}]`))
   const readings = raw.map((r) => Math.max(0, r - correction))

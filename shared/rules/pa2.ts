@@ -55,7 +55,10 @@ export function pa2SpotLimits(
   const max = maxUm === null ? null : requireThicknessUm(maxUm, 'maxUm')
   if (max !== null && max < min) throw new RuleInputError('maxUm', 'must not be below minUm')
   const f = PA2_LEVEL_FACTORS[requireLevel(level)]
-  return { spotMinUm: min * f.min, spotMaxUm: f.max === null || max === null ? null : max * f.max }
+  return {
+    spotMinUm: min * f.min,
+    spotMaxUm: f.max === null || max === null ? null : max * f.max,
+  }
 }
 
 /** ASTM D7091 type 1 gauge: the base metal reading is the mean of ~10 bare-substrate readings. */
@@ -133,43 +136,78 @@ export function evaluatePa2(input: Pa2Input): Pa2Result {
       const m = mean(readings)
       const where = `Area ${a + 1}, spot ${s + 1}`
       if (readings.length < PA2_MIN_READINGS_PER_SPOT) {
-        reasons.push(`${where}: ${readings.length} of ${PA2_MIN_READINGS_PER_SPOT} gauge readings taken.`)
-        return { meanUm: m, pass: false, status: 'incomplete', readingCount: readings.length }
+        reasons.push(
+          `${where}: ${readings.length} of ${PA2_MIN_READINGS_PER_SPOT} gauge readings taken.`,
+        )
+        return {
+          meanUm: m,
+          pass: false,
+          status: 'incomplete',
+          readingCount: readings.length,
+        }
       }
       let ok = true
       if (!atLeast(m, spotMinUm)) {
         ok = false
-        reasons.push(`${where}: mean ${f(m)} is ${f(spotMinUm - m)} below the spot minimum ${f(spotMinUm)} (level ${level}).`)
+        reasons.push(
+          `${where}: mean ${f(m)} is ${f(spotMinUm - m)} below the spot minimum ${f(spotMinUm)} (level ${level}).`,
+        )
       }
       if (spotMaxUm !== null && !atMost(m, spotMaxUm)) {
         ok = false
-        reasons.push(`${where}: mean ${f(m)} is ${f(m - spotMaxUm)} above the spot maximum ${f(spotMaxUm)} (level ${level}).`)
+        reasons.push(
+          `${where}: mean ${f(m)} is ${f(m - spotMaxUm)} above the spot maximum ${f(spotMaxUm)} (level ${level}).`,
+        )
       }
-      return { meanUm: m, pass: ok, status: ok ? 'pass' : 'fail', readingCount: readings.length }
+      return {
+        meanUm: m,
+        pass: ok,
+        status: ok ? 'pass' : 'fail',
+        readingCount: readings.length,
+      }
     })
     const complete = spotResults.filter((s) => s.status !== 'incomplete')
     const areaMean = mean(complete.map((s) => s.meanUm))
     let status: Pa2Status = spotResults.some((s) => s.status === 'fail') ? 'fail' : 'pass'
     if (complete.length < Math.max(1, spotsPerArea)) {
       if (status !== 'fail') status = 'incomplete'
-      reasons.push(`Area ${a + 1}: ${complete.length} of ${Math.max(1, spotsPerArea)} spot measurements complete.`)
+      reasons.push(
+        `Area ${a + 1}: ${complete.length} of ${Math.max(1, spotsPerArea)} spot measurements complete.`,
+      )
     } else {
       if (!atLeast(areaMean, minUm)) {
         status = 'fail'
-        reasons.push(`Area ${a + 1}: mean ${f(areaMean)} is ${f(minUm - areaMean)} below the specified minimum ${f(minUm)}.`)
+        reasons.push(
+          `Area ${a + 1}: mean ${f(areaMean)} is ${f(minUm - areaMean)} below the specified minimum ${f(minUm)}.`,
+        )
       }
       if (maxUm !== null && !atMost(areaMean, maxUm)) {
         status = 'fail'
-        reasons.push(`Area ${a + 1}: mean ${f(areaMean)} is ${f(areaMean - maxUm)} above the specified maximum ${f(maxUm)}.`)
+        reasons.push(
+          `Area ${a + 1}: mean ${f(areaMean)} is ${f(areaMean - maxUm)} above the specified maximum ${f(maxUm)}.`,
+        )
       }
-      if (spotResults.some((s) => s.status === 'incomplete') && status === 'pass') status = 'incomplete'
+      if (spotResults.some((s) => s.status === 'incomplete') && status === 'pass')
+        status = 'incomplete'
     }
-    return { meanUm: areaMean, pass: status === 'pass', status, spots: spotResults }
+    return {
+      meanUm: areaMean,
+      pass: status === 'pass',
+      status,
+      spots: spotResults,
+    }
   })
   let status: Pa2Status = areas.some((a) => a.status === 'fail') ? 'fail' : 'pass'
   if (status === 'pass' && (areas.length === 0 || areas.some((a) => a.status === 'incomplete'))) {
     status = 'incomplete'
   }
   if (areas.length === 0) reasons.push('No thickness areas recorded.')
-  return { pass: status === 'pass', status, reasons, spotMinUm, spotMaxUm, areas }
+  return {
+    pass: status === 'pass',
+    status,
+    reasons,
+    spotMinUm,
+    spotMaxUm,
+    areas,
+  }
 }
