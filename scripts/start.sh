@@ -1,0 +1,33 @@
+#!/usr/bin/env bash
+# `npm start`: the demo on this machine, from a fresh clone, in one command.
+#   installs what is missing (PostgreSQL 15 via apt-get, npm packages via npm ci), starts the
+#   durable dev database (.data/pg, 127.0.0.1:54329, fsync on), migrates, seeds the demo plant
+#   once, builds the client, starts the local mailbox (maildev) and the server.
+#   Ctrl-C stops the server, the mailbox, then PostgreSQL (if this run started it).
+# NODE_ENV defaults to development: the demo accounts share one published password, which a
+# production start refuses. Settings: .env (see .env.example).
+set -euo pipefail
+# shellcheck source=scripts/stack.sh
+. "$(dirname "$0")/stack.sh"
+new_run_id start
+stack_env
+export PUBLIC_URL=${PUBLIC_URL:-http://127.0.0.1:$PORT}
+
+stack_prepare "$PORT" "$SMTP_PORT" "$MAILDEV_WEB_PORT"
+
+if [ -f index.html ]; then
+  # rebuild only when a client source is newer than the last build
+  if [ ! -f dist/index.html ] || [ -n "$(find src shared index.html vite.config.ts package-lock.json \
+    -newer dist/index.html -print -quit 2>/dev/null)" ]; then
+    say 'Building the client (vite build)'
+    "$BIN/vite" build --logLevel warn
+  fi
+else
+  say 'No index.html yet: serving the API only.'
+fi
+
+start_maildev
+bg 'the server' "$PORT" node --import tsx server/index.ts
+bg_ready
+print_banner "http://127.0.0.1:$PORT"
+stack_wait
