@@ -1,6 +1,19 @@
 import type { Router } from 'express'
 import { authRouter } from './auth/auth.router'
 import { healthRouter } from './health/health.router'
+import { usersRouter } from './users/users.router'
+import { customersRouter } from './customers/customers.router'
+import { specsRouter } from './specs/specs.router'
+import { instrumentsRouter } from './instruments/instruments.router'
+import { settingsRouter } from './settings/settings.router'
 
 /** Every feature's router, mounted at its base path by app.ts. Add a feature here. */
-export const apiRouters: { basePath: string; router: Router }[] = [healthRouter, authRouter]
+export const apiRouters: { basePath: string; router: Router }[] = [
+  healthRouter,
+  authRouter,
+  usersRouter,
+  customersRouter,
+  specsRouter,
+  instrumentsRouter,
+  settingsRouter,
+]

@@ -19,7 +19,10 @@ import { specContentSchema, type SpecContent } from '../spec/specContent'
 
 const name = z.string().trim().min(1, 'Required').max(200)
 const email = z.string().trim().toLowerCase().email('Enter an e-mail address').max(200)
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date as YYYY-MM-DD')
+const isoDate = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date as YYYY-MM-DD')
+  .refine((d) => new Date(`${d}T00:00:00Z`).toISOString().startsWith(d), 'No such calendar date')
 
 export const createUserSchema = z
   .object({
@@ -72,7 +75,14 @@ export const updateCustomerSchema = z.object({
   thicknessUnit: z.enum(['um', 'mil']).optional(),
   active: z.boolean().optional(),
 })
-export const updateContactSchema = contactSchema.partial()
+// Written out rather than contactSchema.partial(): zod 4 would fill the defaults in and a PATCH
+// of a name would silently reactivate a contact.
+export const updateContactSchema = z.object({
+  name: name.optional(),
+  email: email.optional(),
+  receivesCertificates: z.boolean().optional(),
+  active: z.boolean().optional(),
+})
 
 export interface ContactRow {
   id: number
@@ -126,15 +136,25 @@ export interface SpecDetail extends SpecRow {
   versions: SpecVersionRow[]
 }
 
-export const createInstrumentSchema = z.object({
+const instrumentFields = {
   kind: z.enum(INSTRUMENT_KINDS),
   serial: z.string().trim().min(1).max(60),
-  description: z.string().max(200).default(''),
-  calibratedOn: isoDate.nullable().default(null),
+  description: z.string().max(200),
+  calibratedOn: isoDate.nullable(),
   calibrationDueOn: isoDate,
-  certificateRef: z.string().max(100).default(''),
+  certificateRef: z.string().max(100),
+}
+export const createInstrumentSchema = z.object({
+  ...instrumentFields,
+  description: instrumentFields.description.default(''),
+  calibratedOn: instrumentFields.calibratedOn.default(null),
+  certificateRef: instrumentFields.certificateRef.default(''),
 })
-export const updateInstrumentSchema = createInstrumentSchema.partial().extend({ active: z.boolean().optional() })
+// Without defaults (not createInstrumentSchema.partial()): a PATCH must not blank the fields it omits.
+export const updateInstrumentSchema = z
+  .object(instrumentFields)
+  .partial()
+  .extend({ active: z.boolean().optional() })
 
 export type CalibrationStatus = 'current' | 'due-soon' | 'overdue'
 export interface InstrumentRow {
