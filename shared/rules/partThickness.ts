@@ -158,6 +158,9 @@ export function evaluateThicknessCriterion(
   if ((needsBmr || rec.suspectReadings) && status !== 'incomplete') status = 'incomplete'
   if (status === 'incomplete' && !plan.complete)
     notes.push(`Progress ${plan.progress}. ${plan.derivation}`)
+  if (status === 'incomplete' && detail.length === 0 && !needsBmr && !rec.suspectReadings) {
+    detail.push('The readings recorded so far conform.')
+  }
   const reason = [...notes, ...detail].join(' ')
   return { result: { ...base, status, reason, numbers }, measuredMeanUm, plan }
 }

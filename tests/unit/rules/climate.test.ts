@@ -57,12 +57,22 @@ describe('checkClimate — steel ≥ 3 °C above dew point, RH ≤ 85 % (ISO 850
 
   it('uses the spec limits when given', () => {
     expect(at(14.9).pass).toBe(false)
-    expect(checkClimate({ airTempC: 20, relativeHumidityPct: 60, steelTempC: 14.9 }, { minMarginC: 2.5 }).pass).toBe(true)
-    expect(checkClimate({ airTempC: 20, relativeHumidityPct: 60, steelTempC: 30 }, { maxRelativeHumidityPct: 50 }).pass).toBe(false)
+    expect(
+      checkClimate({ airTempC: 20, relativeHumidityPct: 60, steelTempC: 14.9 }, { minMarginC: 2.5 })
+        .pass,
+    ).toBe(true)
+    expect(
+      checkClimate(
+        { airTempC: 20, relativeHumidityPct: 60, steelTempC: 30 },
+        { maxRelativeHumidityPct: 50 },
+      ).pass,
+    ).toBe(false)
   })
 
   it('names both problems when both fail', () => {
-    expect(checkClimate({ airTempC: 20, relativeHumidityPct: 90, steelTempC: 18 }).reasons).toHaveLength(2)
+    expect(
+      checkClimate({ airTempC: 20, relativeHumidityPct: 90, steelTempC: 18 }).reasons,
+    ).toHaveLength(2)
   })
 
   it('refuses a non-finite steel temperature', () => {

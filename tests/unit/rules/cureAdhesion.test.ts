@@ -15,10 +15,18 @@ import {
 describe('ASTM D5402 solvent rub — solvent, count and criterion are spec fields [R]', () => {
   const spec = { solvent: 'MEK', minDoubleRubs: 50 }
   it('at the count passes, one short fails, removal fails, wrong solvent fails', () => {
-    expect(checkSolventRub(spec, { solvent: 'mek', doubleRubs: 50, coatingRemoved: false }).pass).toBe(true)
-    expect(checkSolventRub(spec, { solvent: 'MEK', doubleRubs: 49, coatingRemoved: false }).reason).toMatch(/49 double rubs.*50/)
-    expect(checkSolventRub(spec, { solvent: 'MEK', doubleRubs: 50, coatingRemoved: true }).pass).toBe(false)
-    expect(checkSolventRub(spec, { solvent: 'xylene', doubleRubs: 60, coatingRemoved: false }).pass).toBe(false)
+    expect(
+      checkSolventRub(spec, { solvent: 'mek', doubleRubs: 50, coatingRemoved: false }).pass,
+    ).toBe(true)
+    expect(
+      checkSolventRub(spec, { solvent: 'MEK', doubleRubs: 49, coatingRemoved: false }).reason,
+    ).toMatch(/49 double rubs.*50/)
+    expect(
+      checkSolventRub(spec, { solvent: 'MEK', doubleRubs: 50, coatingRemoved: true }).pass,
+    ).toBe(false)
+    expect(
+      checkSolventRub(spec, { solvent: 'xylene', doubleRubs: 60, coatingRemoved: false }).pass,
+    ).toBe(false)
   })
 })
 
@@ -28,7 +36,9 @@ describe('FBE DSC ΔTg window — spec field, e.g. −2…+3 °C from memory [M]
     expect(checkDsc(spec, { deltaTgC: -2 }).pass).toBe(true)
     expect(checkDsc(spec, { deltaTgC: 3 }).pass).toBe(true)
     expect(checkDsc(spec, { deltaTgC: -2.1 }).pass).toBe(false)
-    expect(checkDsc(spec, { deltaTgC: 3.1 }).reason).toMatch(/3\.1 °C is outside the -2\.0 … 3\.0 °C/)
+    expect(checkDsc(spec, { deltaTgC: 3.1 }).reason).toMatch(
+      /3\.1 °C is outside the -2\.0 … 3\.0 °C/,
+    )
   })
 })
 
@@ -47,9 +57,20 @@ describe('oven window — powder maker data sheet, spec field [P]', () => {
 describe('ASTM D3359 [R]', () => {
   it('method B grade from % removed: 5B none; 4B < 5; 3B 5–15; 2B 15–35; 1B 35–65; 0B > 65', () => {
     const cases: [number, number][] = [
-      [0, 5], [0.1, 4], [4.9, 4], [5, 3], [14.9, 3], [15, 2], [34.9, 2], [35, 1], [65, 1], [65.1, 0], [100, 0],
+      [0, 5],
+      [0.1, 4],
+      [4.9, 4],
+      [5, 3],
+      [14.9, 3],
+      [15, 2],
+      [34.9, 2],
+      [35, 1],
+      [65, 1],
+      [65.1, 0],
+      [100, 0],
     ]
-    for (const [pct, grade] of cases) expect(d3359GradeFromPercentRemoved(pct), `${pct} %`).toBe(grade)
+    for (const [pct, grade] of cases)
+      expect(d3359GradeFromPercentRemoved(pct), `${pct} %`).toBe(grade)
   })
   it('parses 5B…0B and 5A…0A', () => {
     expect(parseD3359Grade('4B')).toEqual({ grade: 4, method: 'B' })
@@ -82,7 +103,9 @@ describe('ASTM D4541 pull-off [R]', () => {
   const spec = { minMPa: psiToMegapascals(1000) } // 1,000 psi = 6.894757 MPa [C]
   it('every pull at or above the minimum passes; a low pull fails', () => {
     expect(checkPullOff(spec, [{ valueMPa: 6.894757 }, { valueMPa: 9 }]).status).toBe('pass')
-    expect(checkPullOff(spec, [{ valueMPa: 6.89 }, { valueMPa: 9 }]).reason).toMatch(/pull 1 6\.89 MPa/)
+    expect(checkPullOff(spec, [{ valueMPa: 6.89 }, { valueMPa: 9 }]).reason).toMatch(
+      /pull 1 6\.89 MPa/,
+    )
   })
   it('a glue failure below the minimum did not test the coating: repeat (incomplete)', () => {
     expect(checkPullOff(spec, [{ valueMPa: 5, gluePct: 100 }]).status).toBe('incomplete')

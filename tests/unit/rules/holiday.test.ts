@@ -41,6 +41,12 @@ describe('holiday test voltage', () => {
     expect(holidayTestVoltage(mil(40.01), 'NACE-SP0274')).toBe(Math.round(1250 * Math.sqrt(40.01)))
   })
 
+  it('16 mils: 2,100 V = 131 V/mil, inside the 125–150 V/mil regulator guidance for FBE pipe [R]', () => {
+    const vPerMil = holidayTestVoltage(mil(16), 'NACE-SP0490') / 16
+    expect(vPerMil).toBeGreaterThanOrEqual(125)
+    expect(vPerMil).toBeLessThanOrEqual(150)
+  })
+
   it('rounds to whole volts with Math.round', () => {
     const v = holidayTestVoltage(mil(15), 'NACE-SP0490') // 525 √15 = 2033.3…
     expect(v).toBe(2033)
@@ -54,7 +60,9 @@ describe('holiday test voltage', () => {
 
   it('has a safety caution that defers to the standard and the maker', () => {
     expect(HOLIDAY_SAFETY_CAUTION).toMatch(/injur/)
-    expect(HOLIDAY_SAFETY_CAUTION).toMatch(/standard.*equipment maker.*local codes.*licensed practice/)
+    expect(HOLIDAY_SAFETY_CAUTION).toMatch(
+      /standard.*equipment maker.*local codes.*licensed practice/,
+    )
   })
 })
 

@@ -128,12 +128,18 @@ describe('evaluatePa2 — spec 8–12 mils, level 3', () => {
   })
 
   it('individual gauge readings are not restricted [R]', () => {
-    const r = evaluatePa2({ ...spec812, areas: [[[mil(4), mil(10), mil(16)], ...[10, 10, 10, 10].map(spot)]] })
+    const r = evaluatePa2({
+      ...spec812,
+      areas: [[[mil(4), mil(10), mil(16)], ...[10, 10, 10, 10].map(spot)]],
+    })
     expect(r.pass).toBe(true)
   })
 
   it('a spot with fewer than 3 readings is incomplete, never a pass', () => {
-    const r = evaluatePa2({ ...spec812, areas: [[[mil(10), mil(10)], ...[10, 10, 10, 10].map(spot)]] })
+    const r = evaluatePa2({
+      ...spec812,
+      areas: [[[mil(10), mil(10)], ...[10, 10, 10, 10].map(spot)]],
+    })
     expect(r.areas[0]!.spots[0]!.status).toBe('incomplete')
     expect(r.areas[0]!.spots[0]!.pass).toBe(false)
     expect(r.status).toBe('incomplete')
@@ -143,8 +149,12 @@ describe('evaluatePa2 — spec 8–12 mils, level 3', () => {
 
   it('level 5 has no spot maximum; the area mean still must not exceed the max', () => {
     const l5 = { minUm: mil(8), maxUm: mil(12), level: 5 as const }
-    expect(evaluatePa2({ ...l5, areas: [[40, 6.4, 6.4, 6.4, 6.4].map(spot)] }).areas[0]!.spots[0]!.pass).toBe(true)
-    expect(evaluatePa2({ ...l5, areas: [[40, 6.4, 6.4, 6.4, 6.4].map(spot)] }).areas[0]!.pass).toBe(false)
+    expect(
+      evaluatePa2({ ...l5, areas: [[40, 6.4, 6.4, 6.4, 6.4].map(spot)] }).areas[0]!.spots[0]!.pass,
+    ).toBe(true)
+    expect(evaluatePa2({ ...l5, areas: [[40, 6.4, 6.4, 6.4, 6.4].map(spot)] }).areas[0]!.pass).toBe(
+      false,
+    )
     expect(evaluatePa2({ ...l5, areas: [[16, 10, 10, 10, 6.4].map(spot)] }).pass).toBe(true)
   })
 
@@ -155,7 +165,9 @@ describe('evaluatePa2 — spec 8–12 mils, level 3', () => {
   })
 
   it('defaults to level 3', () => {
-    expect(evaluatePa2({ minUm: mil(8), maxUm: mil(12), areas: [[spot(10)]] }).spotMinUm).toBeCloseTo(mil(6.4), 9)
+    expect(
+      evaluatePa2({ minUm: mil(8), maxUm: mil(12), areas: [[spot(10)]] }).spotMinUm,
+    ).toBeCloseTo(mil(6.4), 9)
   })
 
   it('spotsPerArea makes a short area incomplete', () => {
@@ -169,17 +181,26 @@ describe('evaluatePa2 — spec 8–12 mils, level 3', () => {
   })
 
   it('names the second area when only it fails', () => {
-    const r = evaluatePa2({ ...spec812, areas: [[10, 10, 10, 10, 10].map(spot), [10, 10, 15, 10, 10].map(spot)] })
+    const r = evaluatePa2({
+      ...spec812,
+      areas: [[10, 10, 10, 10, 10].map(spot), [10, 10, 15, 10, 10].map(spot)],
+    })
     expect(r.areas[0]!.pass).toBe(true)
     expect(r.areas[1]!.pass).toBe(false)
     expect(r.reasons).toHaveLength(1)
-    expect(r.reasons[0]).toMatch(/Area 2, spot 3: mean 381\.0 µm is 15\.2 µm above the spot maximum 365\.8 µm/)
+    expect(r.reasons[0]).toMatch(
+      /Area 2, spot 3: mean 381\.0 µm is 15\.2 µm above the spot maximum 365\.8 µm/,
+    )
   })
 
   it('refuses absurd readings with the field path', () => {
     expect(() => evaluatePa2({ ...spec812, areas: [[[100, 100, 10001]]] })).toThrow(RuleInputError)
-    expect(() => evaluatePa2({ ...spec812, areas: [[[100, -1, 100]]] })).toThrow(/areas\[0\]\[0\]\[1\]/)
-    expect(() => evaluatePa2({ ...spec812, areas: [[[100, Number.NaN, 100]]] })).toThrow(/areas\[0\]\[0\]\[1\]/)
+    expect(() => evaluatePa2({ ...spec812, areas: [[[100, -1, 100]]] })).toThrow(
+      /areas\[0\]\[0\]\[1\]/,
+    )
+    expect(() => evaluatePa2({ ...spec812, areas: [[[100, Number.NaN, 100]]] })).toThrow(
+      /areas\[0\]\[0\]\[1\]/,
+    )
     expect(() => evaluatePa2({ minUm: 300, maxUm: 200, areas: [] })).toThrow(/maxUm/)
   })
 })

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { samplingPlan } from '../../../shared/rules/index'
 
-const spots = (n: number, readings = 3) => Array.from({ length: n }, () => Array<number>(readings).fill(300))
+const spots = (n: number, readings = 3) =>
+  Array.from({ length: n }, () => Array<number>(readings).fill(300))
 
 describe('sampling plan — SSPC-PA 2 [R]', () => {
   it('2,800 ft² → 5 areas, 25 spots, ≥ 75 readings [R]', () => {
@@ -31,7 +32,9 @@ describe('sampling plan — SSPC-PA 2 [R]', () => {
     expect(p.progress).toBe('5 of 10 spots')
   })
   it('no coated area: planned as one area, with a note', () => {
-    expect(samplingPlan('SSPC-PA2', undefined, {}).derivation).toMatch(/not recorded: planned as one area/)
+    expect(samplingPlan('SSPC-PA2', undefined, {}).derivation).toMatch(
+      /not recorded: planned as one area/,
+    )
   })
 })
 

@@ -1,7 +1,12 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import * as ss from 'simple-statistics'
-import { capability, histogramForBand, RuleInputError, subgroupCapability } from '../../../shared/rules/index'
+import {
+  capability,
+  histogramForBand,
+  RuleInputError,
+  subgroupCapability,
+} from '../../../shared/rules/index'
 
 const close = (a: number, b: number) => Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(b))
 
@@ -59,7 +64,9 @@ describe('subgroup capability — Cp/Cpk from R̄/d₂, Pp/Ppk from overall sd',
     const groups = { 2: 1.128, 3: 1.693, 4: 2.059, 5: 2.326 } as const
     for (const [n, d2] of Object.entries(groups)) {
       const size = Number(n)
-      const subgroups = [0, 1, 2].map((k) => Array.from({ length: size }, (_, i) => 300 + k + i * 2))
+      const subgroups = [0, 1, 2].map((k) =>
+        Array.from({ length: size }, (_, i) => 300 + k + i * 2),
+      )
       const rBar = ss.mean(subgroups.map((g) => Math.max(...g) - Math.min(...g)))
       const r = subgroupCapability(subgroups, 250, 400)
       expect(r.sigmaWithin).toBeCloseTo(rBar / d2, 12)
@@ -67,21 +74,35 @@ describe('subgroup capability — Cp/Cpk from R̄/d₂, Pp/Ppk from overall sd',
       const sd = ss.sampleStandardDeviation(subgroups.flat())
       expect(r.sigmaOverall).toBeCloseTo(sd, 12)
       expect(r.pp).toBeCloseTo(150 / (6 * sd), 12)
-      expect(r.ppk).toBeCloseTo(Math.min(400 - ss.mean(subgroups.flat()), ss.mean(subgroups.flat()) - 250) / (3 * sd), 12)
+      expect(r.ppk).toBeCloseTo(
+        Math.min(400 - ss.mean(subgroups.flat()), ss.mean(subgroups.flat()) - 250) / (3 * sd),
+        12,
+      )
     }
   })
   it('refuses unequal subgroups', () => {
-    expect(() => subgroupCapability([[1, 2], [1, 2, 3]])).toThrow(/subgroups\[1\]/)
+    expect(() =>
+      subgroupCapability([
+        [1, 2],
+        [1, 2, 3],
+      ]),
+    ).toThrow(/subgroups\[1\]/)
   })
 })
 
 describe('histogram aligned to the band', () => {
   it('counts every value once and marks the band bins', () => {
     fc.assert(
-      fc.property(fc.array(fc.double({ min: 0, max: 1000, noNaN: true }), { minLength: 1, maxLength: 300 }), (values) => {
-        const bins = histogramForBand(values, 300, 500, 10)
-        return bins.reduce((s, b) => s + b.count, 0) === values.length && bins.filter((b) => b.inBand).length === 10
-      }),
+      fc.property(
+        fc.array(fc.double({ min: 0, max: 1000, noNaN: true }), { minLength: 1, maxLength: 300 }),
+        (values) => {
+          const bins = histogramForBand(values, 300, 500, 10)
+          return (
+            bins.reduce((s, b) => s + b.count, 0) === values.length &&
+            bins.filter((b) => b.inBand).length === 10
+          )
+        },
+      ),
     )
   })
   it('puts edge values in the right bins', () => {

@@ -4,7 +4,10 @@ import { westernElectricViolations as we } from '../../../shared/rules/index'
 // Western Electric rules [R]; centre 0, σ 1 so values are in σ.
 describe('Western Electric rules', () => {
   it('rule 1: one point beyond 3σ (exactly 3σ is not beyond)', () => {
-    expect(we([0, 3.01, 0, -3.5], 0, 1)).toEqual([{ index: 1, rule: 1 }, { index: 3, rule: 1 }])
+    expect(we([0, 3.01, 0, -3.5], 0, 1)).toEqual([
+      { index: 1, rule: 1 },
+      { index: 3, rule: 1 },
+    ])
     expect(we([0, 3, -3], 0, 1)).toEqual([])
   })
 
@@ -34,7 +37,10 @@ describe('Western Electric rules', () => {
 
   it('a run breaking and re-forming is reported again', () => {
     const run = Array(8).fill(0.5)
-    expect(we([...run, -0.5, ...run], 0, 1)).toEqual([{ index: 7, rule: 4 }, { index: 16, rule: 4 }])
+    expect(we([...run, -0.5, ...run], 0, 1)).toEqual([
+      { index: 7, rule: 4 },
+      { index: 16, rule: 4 },
+    ])
   })
 
   it('refuses sigma ≤ 0 and non-finite values', () => {
