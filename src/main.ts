@@ -1,0 +1,33 @@
+import { createApp } from 'vue'
+import { createPinia } from 'pinia'
+import '@fontsource/roboto/400.css'
+import '@fontsource/roboto/500.css'
+import '@fontsource/roboto/700.css'
+import { vuetify } from './plugins/vuetify'
+import './styles/app.css'
+import App from './App.vue'
+import { router } from './router'
+import { configureApi } from './services/api'
+import { useSessionStore } from './stores/session'
+import { ROUTES } from './router/routeNames'
+
+const app = createApp(App)
+const pinia = createPinia()
+app.use(pinia)
+
+const session = useSessionStore(pinia)
+configureApi({
+  getToken: () => session.token,
+  // A 401 on a request that carried a token means the session ended (expired, reset, deactivated).
+  onSessionEnded: () => {
+    session.clear()
+    const current = router.currentRoute.value
+    if (current.name !== ROUTES.signIn) {
+      void router.push({ name: ROUTES.signIn, query: { redirect: current.fullPath, ended: '1' } })
+    }
+  },
+})
+
+app.use(router)
+app.use(vuetify)
+app.mount('#app')

@@ -1,0 +1,44 @@
+import 'vuetify/styles'
+import { createVuetify, type ThemeDefinition } from 'vuetify'
+import { aliases, mdi } from 'vuetify/iconsets/mdi-svg'
+
+/**
+ * Filmtrail's own look: deep teal for the line's structure, burnt orange for the one thing to
+ * look at, warm paper behind. Status colours are never the only signal: every status also has an
+ * icon shape and a word (see StatusBadge.vue).
+ */
+export const filmtrailLight: ThemeDefinition = {
+  dark: false,
+  colors: {
+    primary: '#1F5E63',
+    secondary: '#3D4A4C',
+    accent: '#C46A1B',
+    background: '#F4F2EE',
+    surface: '#FFFFFF',
+    'surface-variant': '#E6E1D8',
+    'on-surface-variant': '#2B2B2B',
+    error: '#B3261E',
+    success: '#2E7D4F',
+    // Darker than a typical amber so its text stays ≥ 4.5:1 on white and on its tonal tint.
+    warning: '#8F5B00',
+    info: '#2C5F8A',
+  },
+}
+
+export const vuetify = createVuetify({
+  theme: { defaultTheme: 'filmtrailLight', themes: { filmtrailLight } },
+  icons: { defaultSet: 'mdi', aliases, sets: { mdi } },
+  defaults: {
+    // Gloved fingers at the line: comfortable density and 48 px targets by default.
+    VBtn: { size: 'large', rounded: 'lg' },
+    VTextField: { variant: 'outlined', color: 'primary' },
+    VTextarea: { variant: 'outlined', color: 'primary' },
+    VSelect: { variant: 'outlined', color: 'primary' },
+    VAutocomplete: { variant: 'outlined', color: 'primary' },
+    VSwitch: { color: 'primary', inset: true },
+    VCheckbox: { color: 'primary' },
+    VCard: { rounded: 'lg' },
+    VAlert: { variant: 'tonal' },
+    VListItem: { minHeight: 48 },
+  },
+})

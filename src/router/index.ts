@@ -1,0 +1,111 @@
+import { createRouter, createWebHistory, type RouteRecordRaw } from 'vue-router'
+import { ADMIN, ROLES, type Role } from '@shared/api/roles'
+import { useSessionStore } from '@/stores/session'
+import { ROUTES } from './routeNames'
+import { roleHome } from './navigation'
+
+declare module 'vue-router' {
+  interface RouteMeta {
+    /** Who may open the page; absent only on public pages. */
+    roles?: readonly Role[]
+    public?: boolean
+    title?: string
+  }
+}
+
+const routes: RouteRecordRaw[] = [
+  {
+    path: '/sign-in',
+    name: ROUTES.signIn,
+    component: () => import('@/views/SignInView.vue'),
+    meta: { public: true, title: 'Sign in' },
+  },
+  {
+    path: '/',
+    name: ROUTES.home,
+    component: () => import('@/views/HomeView.vue'),
+    meta: { roles: ROLES, title: 'Home' },
+  },
+  {
+    path: '/setup',
+    meta: { roles: ADMIN },
+    children: [
+      { path: '', redirect: { name: ROUTES.setupSpecs } },
+      {
+        path: 'people',
+        name: ROUTES.setupPeople,
+        component: () => import('@/views/setup/SetupPeopleView.vue'),
+        meta: { roles: ADMIN, title: 'People' },
+      },
+      {
+        path: 'customers',
+        name: ROUTES.setupCustomers,
+        component: () => import('@/views/setup/SetupCustomersView.vue'),
+        meta: { roles: ADMIN, title: 'Customers' },
+      },
+      {
+        path: 'specs',
+        name: ROUTES.setupSpecs,
+        component: () => import('@/views/setup/SetupSpecsView.vue'),
+        meta: { roles: ADMIN, title: 'Coating specs' },
+      },
+      {
+        path: 'specs/new',
+        name: ROUTES.setupSpecNew,
+        component: () => import('@/views/setup/SpecEditView.vue'),
+        meta: { roles: ADMIN, title: 'New coating spec' },
+      },
+      {
+        path: 'specs/:id(\\d+)',
+        name: ROUTES.setupSpecDetail,
+        component: () => import('@/views/setup/SpecDetailView.vue'),
+        props: (r) => ({ id: Number(r.params.id) }),
+        meta: { roles: ADMIN, title: 'Coating spec' },
+      },
+      {
+        path: 'specs/:id(\\d+)/edit',
+        name: ROUTES.setupSpecEdit,
+        component: () => import('@/views/setup/SpecEditView.vue'),
+        props: (r) => ({ id: Number(r.params.id) }),
+        meta: { roles: ADMIN, title: 'Edit coating spec' },
+      },
+      {
+        path: 'instruments',
+        name: ROUTES.setupInstruments,
+        component: () => import('@/views/setup/SetupInstrumentsView.vue'),
+        meta: { roles: ADMIN, title: 'Instruments' },
+      },
+      {
+        path: 'settings',
+        name: ROUTES.setupSettings,
+        component: () => import('@/views/setup/SetupSettingsView.vue'),
+        meta: { roles: ADMIN, title: 'Plant settings' },
+      },
+    ],
+  },
+  { path: '/:pathMatch(.*)*', redirect: { name: ROUTES.home } },
+]
+
+export const router = createRouter({ history: createWebHistory(), routes })
+
+/**
+ * The one guard. Public pages open for anyone (a signed-in person is sent home from sign-in);
+ * every other page needs a session, and the role must be in meta.roles.
+ */
+router.beforeEach(async (to) => {
+  const session = useSessionStore()
+  await session.restore()
+  if (to.meta.public) {
+    return to.name === ROUTES.signIn && session.signedIn ? roleHome(session.user!.role) : true
+  }
+  if (!session.signedIn) {
+    return { name: ROUTES.signIn, query: to.fullPath === '/' ? {} : { redirect: to.fullPath } }
+  }
+  const roles = to.meta.roles
+  if (!roles || !roles.includes(session.user!.role)) return roleHome(session.user!.role)
+  return true
+})
+
+router.afterEach((to) => {
+  document.title = to.meta.title ? `${to.meta.title} · Filmtrail` : 'Filmtrail'
+})

@@ -1,0 +1,58 @@
+/**
+ * The navigation drawer, as data. A page appears in a person's drawer only when its route's
+ * meta.roles include their role — the same list the router guard checks, so the menu can never
+ * offer a page the guard would refuse. To add a page later (lots, review, certificates, trends):
+ * add its route in router/index.ts with meta.roles, then one entry below.
+ */
+import type { RouteLocationRaw, Router } from 'vue-router'
+import {
+  mdiAccountGroupOutline,
+  mdiCogOutline,
+  mdiDomain,
+  mdiGauge,
+  mdiHomeOutline,
+  mdiTextBoxCheckOutline,
+} from '@mdi/js'
+import type { Role } from '@shared/api/roles'
+import { ROUTES, type RouteName } from './routeNames'
+
+export interface NavEntry {
+  title: string
+  icon: string
+  route: RouteName
+  /** Shown under the entry, for a first-time reader. */
+  hint?: string
+}
+export interface NavGroup {
+  /** null: entries above every heading. */
+  heading: string | null
+  entries: NavEntry[]
+}
+
+export const NAV_GROUPS: NavGroup[] = [
+  { heading: null, entries: [{ title: 'Home', icon: mdiHomeOutline, route: ROUTES.home }] },
+  {
+    heading: 'Setup',
+    entries: [
+      { title: 'Coating specs', icon: mdiTextBoxCheckOutline, route: ROUTES.setupSpecs, hint: 'Bands, prep, holiday, cure' },
+      { title: 'Instruments', icon: mdiGauge, route: ROUTES.setupInstruments, hint: 'Gauges and calibration' },
+      { title: 'Customers', icon: mdiDomain, route: ROUTES.setupCustomers, hint: 'Companies and contacts' },
+      { title: 'People', icon: mdiAccountGroupOutline, route: ROUTES.setupPeople, hint: 'Sign-ins and roles' },
+      { title: 'Plant settings', icon: mdiCogOutline, route: ROUTES.setupSettings },
+    ],
+  },
+]
+
+/** The groups and entries one role may open, in drawer order; empty groups are left out. */
+export function navFor(role: Role, router: Router): NavGroup[] {
+  return NAV_GROUPS.map((g) => ({
+    heading: g.heading,
+    entries: g.entries.filter((e) => router.resolve({ name: e.route }).meta.roles?.includes(role) ?? false),
+  })).filter((g) => g.entries.length > 0)
+}
+
+/** Where a role lands after sign-in or when it opens a page it may not see. */
+export function roleHome(_role: Role): RouteLocationRaw {
+  // Every role shares one home route today; its content depends on the role (HomeView.vue).
+  return { name: ROUTES.home }
+}
