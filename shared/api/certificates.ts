@@ -1,0 +1,70 @@
+import { z } from 'zod'
+
+/**
+ * Certificates of conformance. Routes:
+ *   POST /api/lots/:id/certificates            issue for a released lot (supervisor)       { kind }
+ *   GET  /api/certificates?q&customerId         list (staff: all; customer: own company only)
+ *   GET  /api/certificates/:id                  detail with deliveries (customer: own only, else 404)
+ *   GET  /api/certificates/:id/pdf              the stored PDF bytes (customer: own only, else 404)
+ *   POST /api/certificates/:id/reissue          new certificate superseding this one (supervisor) { reason, kind? }
+ *   POST /api/certificates/:id/revoke           (supervisor) { reason }
+ *   POST /api/certificates/:id/resend           queue the e-mail again (supervisor)
+ *   GET  /api/verify/:code                      public, rate limited: validity only
+ * The public page /verify/<code> (client route, no sign-in) is the QR code's target.
+ */
+
+/** EN 10204 inspection document types. 3.1 is the default. */
+export const CERTIFICATE_KINDS = ['2.1', '2.2', '3.1'] as const
+export type CertificateKind = (typeof CERTIFICATE_KINDS)[number]
+export const CERTIFICATE_KIND_LABELS: Record<CertificateKind, string> = {
+  '2.1': 'EN 10204 type 2.1 — declaration of compliance (no results)',
+  '2.2': 'EN 10204 type 2.2 — test report (non-specific results)',
+  '3.1': 'EN 10204 type 3.1 — inspection certificate (specific inspection results)',
+}
+
+export const issueCertificateSchema = z.object({ kind: z.enum(CERTIFICATE_KINDS).default('3.1') })
+export const reasonSchema = z.object({ reason: z.string().trim().min(3, 'Give a reason').max(500) })
+export const reissueSchema = reasonSchema.extend({ kind: z.enum(CERTIFICATE_KINDS).optional() })
+
+export type CertificateState = 'valid' | 'superseded' | 'revoked'
+export type DeliveryState = 'queued' | 'sent' | 'failed'
+
+/** Everything the PDF shows; built by the server from the released lot, rendered by server/pdf. */
+export interface CertificateData {
+  number: string
+  kind: CertificateKind
+  issuedAt: string
+  verifyUrl: string
+  issuer: { name: string; address: string }
+  customer: { name: string; address: string }
+  orderRef: string
+  lotNumber: string
+  line: string
+  shift: string
+  coating: { material: string; batchNumber: string; batchExpiresOn: string }
+  spec: { code: string; title: string; version: number; acceptanceRule: string; band: string }
+  /** Unit the customer reads thickness in. */
+  thicknessUnit: 'um' | 'mil'
+  parts: {
+    partNumber: string
+    description: string
+    heatNumber: string
+    quantity: number
+    /** Thickness statistics of the part's accepted readings, µm. */
+    thickness: { n: number; minUm: number; meanUm: number; maxUm: number } | null
+    verdict: string
+  }[]
+  surfacePrep: { gradeRequired: string; gradesRecorded: string; profileBand: string; profileRecorded: string } | null
+  climate: { summary: string } | null
+  holiday: { method: string; voltage: string; result: string } | null
+  cure: string[]
+  adhesion: string[]
+  nonconformances: { number: string; defect: string; disposition: string; concessionRef: string | null; closed: boolean }[]
+  statement: string
+  inspectedBy: { name: string; date: string }[]
+  approvedBy: { name: string; date: string }
+  /** When the plant allows the recorder to release (small shops), the certificate says so. */
+  independenceNote: string | null
+  /** Reissue: the number this certificate replaces. */
+  supersedes: string | null
+}
