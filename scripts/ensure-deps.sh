@@ -5,8 +5,10 @@ ROOT=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
 PGBIN=/usr/lib/postgresql/15/bin
 BIN=$ROOT/node_modules/.bin
 
-say() { printf '\033[1m[filmtrail]\033[0m %s\n' "$*" >&2; }
-die() { printf '\033[1;31m[filmtrail]\033[0m %s\n' "$*" >&2; exit 1; }
+# bold/red only on a terminal; plain text in CI logs
+if [ -t 2 ]; then C_BOLD=$'\033[1m' C_RED=$'\033[1;31m' C_OFF=$'\033[0m'; else C_BOLD="" C_RED="" C_OFF=""; fi
+say() { printf '%s[filmtrail]%s %s\n' "$C_BOLD" "$C_OFF" "$*" >&2; }
+die() { printf '%s[filmtrail]%s %s\n' "$C_RED" "$C_OFF" "$*" >&2; exit 1; }
 
 is_root() { [ "$(id -u)" = 0 ]; }
 

@@ -50,7 +50,7 @@ TIMES=()
 step() {
   local name=$1 t0=$SECONDS rc=0
   shift
-  printf '\n\033[1m== %s ==\033[0m  %s\n' "$name" "$*" >&2
+  printf '\n%s== %s ==%s  %s\n' "$C_BOLD" "$name" "$C_OFF" "$*" >&2
   "$@" || rc=$?
   NAMES+=("$name")
   TIMES+=("$((SECONDS - t0))s")
@@ -69,7 +69,7 @@ else
 fi
 
 failed=0
-printf '\n\033[1m== summary ==\033[0m\n' >&2
+printf '\n%s== summary ==%s\n' "$C_BOLD" "$C_OFF" >&2
 for i in "${!NAMES[@]}"; do
   printf '  %-13s %-18s %s\n' "${NAMES[$i]}" "${RESULTS[$i]}" "${TIMES[$i]}" >&2
   [ "${RESULTS[$i]}" = ok ] || failed=1
