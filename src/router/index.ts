@@ -1,5 +1,5 @@
 import { createRouter, createWebHistory, type RouteRecordRaw } from 'vue-router'
-import { ADMIN, ROLES, type Role } from '@shared/api/roles'
+import { ADMIN, FLOOR, ROLES, STAFF, type Role } from '@shared/api/roles'
 import { useSessionStore } from '@/stores/session'
 import { ROUTES } from './routeNames'
 import { roleHome } from './navigation'
@@ -80,6 +80,45 @@ const routes: RouteRecordRaw[] = [
         name: ROUTES.setupSettings,
         component: () => import('@/views/setup/SetupSettingsView.vue'),
         meta: { roles: ADMIN, title: 'Plant settings' },
+      },
+    ],
+  },
+  {
+    path: '/line',
+    meta: { roles: STAFF },
+    children: [
+      { path: '', redirect: { name: ROUTES.floorLots } },
+      {
+        path: 'lots',
+        name: ROUTES.floorLots,
+        component: () => import('@/views/floor/FloorLotsView.vue'),
+        meta: { roles: STAFF, title: 'Lots' },
+      },
+      {
+        path: 'lots/new',
+        name: ROUTES.floorLotNew,
+        component: () => import('@/views/floor/FloorLotNewView.vue'),
+        meta: { roles: FLOOR, title: 'Open a lot' },
+      },
+      {
+        path: 'lots/:id(\\d+)',
+        name: ROUTES.floorLot,
+        component: () => import('@/views/floor/FloorLotView.vue'),
+        props: (r) => ({ id: Number(r.params.id) }),
+        meta: { roles: STAFF, title: 'Lot' },
+      },
+      {
+        path: 'parts/:id(\\d+)',
+        name: ROUTES.floorPart,
+        component: () => import('@/views/floor/FloorPartView.vue'),
+        props: (r) => ({ id: Number(r.params.id) }),
+        meta: { roles: FLOOR, title: 'Inspect a part' },
+      },
+      {
+        path: 'waiting',
+        name: ROUTES.floorQueue,
+        component: () => import('@/views/floor/FloorQueueView.vue'),
+        meta: { roles: FLOOR, title: 'Waiting to send' },
       },
     ],
   },

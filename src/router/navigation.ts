@@ -7,6 +7,8 @@
 import type { RouteLocationRaw, Router } from 'vue-router'
 import {
   mdiAccountGroupOutline,
+  mdiClipboardListOutline,
+  mdiCloudUploadOutline,
   mdiCogOutline,
   mdiDomain,
   mdiGauge,
@@ -31,6 +33,13 @@ export interface NavGroup {
 
 export const NAV_GROUPS: NavGroup[] = [
   { heading: null, entries: [{ title: 'Home', icon: mdiHomeOutline, route: ROUTES.home }] },
+  {
+    heading: 'Coating line',
+    entries: [
+      { title: 'Lots', icon: mdiClipboardListOutline, route: ROUTES.floorLots, hint: 'Open a lot, inspect its parts' },
+      { title: 'Waiting to send', icon: mdiCloudUploadOutline, route: ROUTES.floorQueue, hint: 'Records kept on this tablet' },
+    ],
+  },
   {
     heading: 'Setup',
     entries: [

@@ -10,6 +10,12 @@ export const ROUTES = {
   setupSpecEdit: 'setup-spec-edit',
   setupInstruments: 'setup-instruments',
   setupSettings: 'setup-settings',
+  // Coating line (the tablet at the line): lots, parts, readings, the send-later list.
+  floorLots: 'floor-lots',
+  floorLotNew: 'floor-lot-new',
+  floorLot: 'floor-lot',
+  floorPart: 'floor-part',
+  floorQueue: 'floor-queue',
 } as const
 
 export type RouteName = (typeof ROUTES)[keyof typeof ROUTES]
