@@ -8,7 +8,9 @@ import { migrateUp } from '../db/migrate'
 import { DEMO_PASSWORD, DEMO_SIGN_INS, runSeed } from '../db/seeders'
 
 if (env.NODE_ENV === 'production' && !process.argv.includes('--allow-production')) {
-  console.error('Refusing to seed demo data into a production database (pass --allow-production to insist).')
+  console.error(
+    'Refusing to seed demo data into a production database (pass --allow-production to insist).',
+  )
   process.exit(1)
 }
 
@@ -21,7 +23,8 @@ try {
   }
   if (summary.skipped.length) console.log(`  already seeded once: ${summary.skipped.join(', ')}`)
   console.log(`\nDemo sign-ins (password for all: ${DEMO_PASSWORD}):`)
-  for (const s of DEMO_SIGN_INS) console.log(`  ${s.email.padEnd(32)} ${s.role.padEnd(11)} ${s.purpose}`)
+  for (const s of DEMO_SIGN_INS)
+    console.log(`  ${s.email.padEnd(32)} ${s.role.padEnd(11)} ${s.purpose}`)
 } finally {
   await sequelize.close()
 }

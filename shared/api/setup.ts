@@ -64,7 +64,11 @@ export const contactSchema = z.object({
 })
 export const createCustomerSchema = z.object({
   name,
-  code: z.string().trim().toUpperCase().regex(/^[A-Z0-9-]{2,16}$/, 'Use 2–16 letters, digits or dashes'),
+  code: z
+    .string()
+    .trim()
+    .toUpperCase()
+    .regex(/^[A-Z0-9-]{2,16}$/, 'Use 2–16 letters, digits or dashes'),
   address: z.string().max(1000).default(''),
   thicknessUnit: z.enum(['um', 'mil']).default('um'),
   contacts: z.array(contactSchema).max(50).default([]),

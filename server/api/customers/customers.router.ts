@@ -1,13 +1,27 @@
 import { z } from 'zod'
 import { secureRouter, idParams } from '../secureRouter'
 import { ADMIN, STAFF } from '../../../shared/api/roles'
-import { contactSchema, createCustomerSchema, updateContactSchema, updateCustomerSchema } from '../../../shared/api/setup'
-import { addContact, createCustomer, getCustomer, listCustomers, updateContact, updateCustomer } from './customers.service'
+import {
+  contactSchema,
+  createCustomerSchema,
+  updateContactSchema,
+  updateCustomerSchema,
+} from '../../../shared/api/setup'
+import {
+  addContact,
+  createCustomer,
+  getCustomer,
+  listCustomers,
+  updateContact,
+  updateCustomer,
+} from './customers.service'
 
 /** Setup → Customers and the contacts certificates go to. Staff read (lots need a customer); admins write. */
 const r = secureRouter('/api/customers')
 
-const contactParams = idParams.extend({ contactId: z.coerce.number().int().positive().max(2147483647) })
+const contactParams = idParams.extend({
+  contactId: z.coerce.number().int().positive().max(2147483647),
+})
 
 r.get('/', { roles: STAFF }, () => listCustomers())
 
@@ -18,14 +32,20 @@ r.post('/', { roles: ADMIN, body: createCustomerSchema }, async ({ user, body, r
   return createCustomer(user, body)
 })
 
-r.patch('/:id', { roles: ADMIN, params: idParams, body: updateCustomerSchema }, ({ user, params, body }) =>
-  updateCustomer(user, params.id, body),
+r.patch(
+  '/:id',
+  { roles: ADMIN, params: idParams, body: updateCustomerSchema },
+  ({ user, params, body }) => updateCustomer(user, params.id, body),
 )
 
-r.post('/:id/contacts', { roles: ADMIN, params: idParams, body: contactSchema }, async ({ user, params, body, res }) => {
-  res.status(201)
-  return addContact(user, params.id, body)
-})
+r.post(
+  '/:id/contacts',
+  { roles: ADMIN, params: idParams, body: contactSchema },
+  async ({ user, params, body, res }) => {
+    res.status(201)
+    return addContact(user, params.id, body)
+  },
+)
 
 r.patch(
   '/:id/contacts/:contactId',

@@ -13,8 +13,10 @@ r.post('/', { roles: ADMIN, body: createInstrumentSchema }, async ({ user, body,
   return createInstrument(user, body)
 })
 
-r.patch('/:id', { roles: ADMIN, params: idParams, body: updateInstrumentSchema }, ({ user, params, body }) =>
-  updateInstrument(user, params.id, body),
+r.patch(
+  '/:id',
+  { roles: ADMIN, params: idParams, body: updateInstrumentSchema },
+  ({ user, params, body }) => updateInstrument(user, params.id, body),
 )
 
 export const instrumentsRouter = r

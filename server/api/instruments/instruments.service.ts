@@ -5,8 +5,17 @@ import { Instrument } from '../../db/models'
 import { recordAudit, snapshot, type AuditActor } from '../../audit/audit.service'
 import { HttpError, conflict, notFound } from '../../lib/httpError'
 import { INSTRUMENT_KIND_LABELS, type InstrumentKind } from '../../../shared/api/instruments'
-import { calibrationState, calibrationValidOn, localIsoDate, overdueSince } from '../../../shared/api/calibration'
-import type { InstrumentRow, createInstrumentSchema, updateInstrumentSchema } from '../../../shared/api/setup'
+import {
+  calibrationState,
+  calibrationValidOn,
+  localIsoDate,
+  overdueSince,
+} from '../../../shared/api/calibration'
+import type {
+  InstrumentRow,
+  createInstrumentSchema,
+  updateInstrumentSchema,
+} from '../../../shared/api/setup'
 
 type CreateInstrumentBody = z.infer<typeof createInstrumentSchema>
 type UpdateInstrumentBody = z.infer<typeof updateInstrumentSchema>
@@ -27,14 +36,21 @@ export function toInstrumentRow(i: Instrument, today: string = localIsoDate()): 
 
 export async function listInstruments(): Promise<InstrumentRow[]> {
   const today = localIsoDate()
-  const instruments = await Instrument.findAll({ order: [['kind', 'ASC'], ['serial', 'ASC']] })
+  const instruments = await Instrument.findAll({
+    order: [
+      ['kind', 'ASC'],
+      ['serial', 'ASC'],
+    ],
+  })
   return instruments.map((i) => toInstrumentRow(i, today))
 }
 
 function assertDatesInOrder(calibratedOn: string | null, calibrationDueOn: string) {
   if (calibratedOn !== null && calibratedOn > calibrationDueOn) {
     const message = `The calibration due date (${calibrationDueOn}) is before the calibration date (${calibratedOn})`
-    throw new HttpError(400, 'invalid_input', message, [{ field: 'body.calibrationDueOn', message }])
+    throw new HttpError(400, 'invalid_input', message, [
+      { field: 'body.calibrationDueOn', message },
+    ])
   }
 }
 
@@ -43,10 +59,17 @@ async function assertSerialFree(serial: string, exceptId: number | null, t: Tran
     where: { serial, ...(exceptId === null ? {} : { id: { [Op.ne]: exceptId } }) },
     transaction: t,
   })
-  if (same) throw conflict('duplicate_serial', `An instrument with serial number ${serial} is already registered`)
+  if (same)
+    throw conflict(
+      'duplicate_serial',
+      `An instrument with serial number ${serial} is already registered`,
+    )
 }
 
-export async function createInstrument(actor: AuditActor, body: CreateInstrumentBody): Promise<InstrumentRow> {
+export async function createInstrument(
+  actor: AuditActor,
+  body: CreateInstrumentBody,
+): Promise<InstrumentRow> {
   assertDatesInOrder(body.calibratedOn, body.calibrationDueOn)
   return inTransaction(async (t) => {
     await assertSerialFree(body.serial, null, t)
@@ -61,19 +84,37 @@ export async function createInstrument(actor: AuditActor, body: CreateInstrument
       },
       { transaction: t },
     )
-    await recordAudit(t, actor, { action: 'instrument.create', entityType: 'instrument', entityId: instrument.id, after: instrument })
+    await recordAudit(t, actor, {
+      action: 'instrument.create',
+      entityType: 'instrument',
+      entityId: instrument.id,
+      after: instrument,
+    })
     return toInstrumentRow(instrument)
   })
 }
 
-const EDITABLE = ['kind', 'serial', 'description', 'calibratedOn', 'calibrationDueOn', 'certificateRef', 'active'] as const
+const EDITABLE = [
+  'kind',
+  'serial',
+  'description',
+  'calibratedOn',
+  'calibrationDueOn',
+  'certificateRef',
+  'active',
+] as const
 
 /** A new calibration is recorded here too: a later due date (and certificate) on the same row. */
-export async function updateInstrument(actor: AuditActor, id: number, body: UpdateInstrumentBody): Promise<InstrumentRow> {
+export async function updateInstrument(
+  actor: AuditActor,
+  id: number,
+  body: UpdateInstrumentBody,
+): Promise<InstrumentRow> {
   return inTransaction(async (t) => {
     const instrument = await Instrument.findByPk(id, { lock: t.LOCK.UPDATE, transaction: t })
     if (!instrument) throw notFound('Instrument')
-    if (body.serial !== undefined && body.serial !== instrument.serial) await assertSerialFree(body.serial, id, t)
+    if (body.serial !== undefined && body.serial !== instrument.serial)
+      await assertSerialFree(body.serial, id, t)
     assertDatesInOrder(
       body.calibratedOn !== undefined ? body.calibratedOn : instrument.calibratedOn,
       body.calibrationDueOn ?? instrument.calibrationDueOn,
@@ -86,7 +127,13 @@ export async function updateInstrument(actor: AuditActor, id: number, body: Upda
     }
     if (Object.keys(changes).length > 0) {
       await instrument.update({ ...changes, version: instrument.version + 1 }, { transaction: t })
-      await recordAudit(t, actor, { action: 'instrument.update', entityType: 'instrument', entityId: id, before, after: instrument })
+      await recordAudit(t, actor, {
+        action: 'instrument.update',
+        entityType: 'instrument',
+        entityId: id,
+        before,
+        after: instrument,
+      })
     }
     return toInstrumentRow(instrument)
   })
@@ -110,7 +157,8 @@ export async function assertInstrumentUsable(
   const instrument = await Instrument.findByPk(instrumentId, { transaction: t })
   const fieldError = (status: number, code: string, message: string) =>
     new HttpError(status, code, message, [{ field: 'instrumentId', message }])
-  if (!instrument) throw fieldError(400, 'invalid_reference', `Instrument #${instrumentId} is not registered`)
+  if (!instrument)
+    throw fieldError(400, 'invalid_reference', `Instrument #${instrumentId} is not registered`)
   if (kinds.length > 0 && !kinds.includes(instrument.kind)) {
     throw fieldError(
       400,
@@ -119,7 +167,11 @@ export async function assertInstrumentUsable(
     )
   }
   if (!instrument.active) {
-    throw fieldError(409, 'instrument_retired', `Instrument ${instrument.serial} has been taken out of service`)
+    throw fieldError(
+      409,
+      'instrument_retired',
+      `Instrument ${instrument.serial} has been taken out of service`,
+    )
   }
   const onDate = typeof atDate === 'string' ? atDate : localIsoDate(atDate)
   if (!calibrationValidOn(instrument.calibrationDueOn, onDate)) {

@@ -8,6 +8,8 @@ const r = secureRouter('/api/settings')
 
 r.get('/', { roles: STAFF }, () => getPlantSettings())
 
-r.put('/', { roles: ADMIN, body: settingsSchema }, ({ user, body }) => updatePlantSettings(user, body))
+r.put('/', { roles: ADMIN, body: settingsSchema }, ({ user, body }) =>
+  updatePlantSettings(user, body),
+)
 
 export const settingsRouter = r

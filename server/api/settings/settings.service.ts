@@ -21,7 +21,10 @@ export async function getPlantSettings(t?: Transaction): Promise<PlantSettings> 
   return merged
 }
 
-export async function updatePlantSettings(actor: AuditActor, body: PlantSettings): Promise<PlantSettings> {
+export async function updatePlantSettings(
+  actor: AuditActor,
+  body: PlantSettings,
+): Promise<PlantSettings> {
   return inTransaction(async (t) => {
     const row = await Setting.findByPk(PLANT_SETTINGS_KEY, { lock: t.LOCK.UPDATE, transaction: t })
     const before = await getPlantSettings(t)
@@ -32,7 +35,13 @@ export async function updatePlantSettings(actor: AuditActor, body: PlantSettings
     }
     if (row) await row.update({ value }, { transaction: t })
     else await Setting.create({ key: PLANT_SETTINGS_KEY, value }, { transaction: t })
-    await recordAudit(t, actor, { action: 'settings.update', entityType: 'setting', entityId: PLANT_SETTINGS_KEY, before, after: value })
+    await recordAudit(t, actor, {
+      action: 'settings.update',
+      entityType: 'setting',
+      entityId: PLANT_SETTINGS_KEY,
+      before,
+      after: value,
+    })
     return getPlantSettings(t)
   })
 }

@@ -2,7 +2,13 @@ import { z } from 'zod'
 import { secureRouter, idParams } from '../secureRouter'
 import { ADMIN, STAFF } from '../../../shared/api/roles'
 import { createSpecSchema, updateSpecSchema } from '../../../shared/api/setup'
-import { createSpec, getSpecDetail, getSpecVersionRow, listSpecs, updateSpec } from './specs.service'
+import {
+  createSpec,
+  getSpecDetail,
+  getSpecVersionRow,
+  listSpecs,
+  updateSpec,
+} from './specs.service'
 
 /** Setup → Coating specs, versioned. Staff read (a lot is inspected against one); admins write. */
 const r = secureRouter('/api/specs')
@@ -22,8 +28,10 @@ r.post('/', { roles: ADMIN, body: createSpecSchema }, async ({ user, body, res }
   return createSpec(user, body)
 })
 
-r.put('/:id', { roles: ADMIN, params: idParams, body: updateSpecSchema }, ({ user, params, body }) =>
-  updateSpec(user, params.id, body),
+r.put(
+  '/:id',
+  { roles: ADMIN, params: idParams, body: updateSpecSchema },
+  ({ user, params, body }) => updateSpec(user, params.id, body),
 )
 
 export const specsRouter = r

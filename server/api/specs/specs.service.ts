@@ -5,7 +5,13 @@ import { inTransaction } from '../../db'
 import { CoatingSpec, Customer, SpecVersion, User } from '../../db/models'
 import { recordAudit, snapshot, type AuditActor } from '../../audit/audit.service'
 import { HttpError, conflict, notFound } from '../../lib/httpError'
-import type { SpecDetail, SpecRow, SpecVersionRow, createSpecSchema, updateSpecSchema } from '../../../shared/api/setup'
+import type {
+  SpecDetail,
+  SpecRow,
+  SpecVersionRow,
+  createSpecSchema,
+  updateSpecSchema,
+} from '../../../shared/api/setup'
 
 type CreateSpecBody = z.infer<typeof createSpecSchema>
 type UpdateSpecBody = z.infer<typeof updateSpecSchema>
@@ -13,9 +19,15 @@ type SpecWithCustomer = CoatingSpec & { customer?: Customer | null }
 
 /** Who wrote each version, by id: SpecVersion.createdBy has no association of its own. */
 async function authorNames(versions: SpecVersion[], t?: Transaction): Promise<Map<number, string>> {
-  const ids = [...new Set(versions.map((v) => v.createdBy).filter((id): id is number => id !== null))]
+  const ids = [
+    ...new Set(versions.map((v) => v.createdBy).filter((id): id is number => id !== null)),
+  ]
   if (ids.length === 0) return new Map()
-  const users = await User.findAll({ where: { id: { [Op.in]: ids } }, attributes: ['id', 'name'], transaction: t })
+  const users = await User.findAll({
+    where: { id: { [Op.in]: ids } },
+    attributes: ['id', 'name'],
+    transaction: t,
+  })
   return new Map(users.map((u) => [u.id, u.name]))
 }
 
@@ -30,7 +42,11 @@ function toVersionRow(v: SpecVersion, names: Map<number, string>): SpecVersionRo
   }
 }
 
-function toSpecRow(spec: SpecWithCustomer, current: SpecVersion, names: Map<number, string>): SpecRow {
+function toSpecRow(
+  spec: SpecWithCustomer,
+  current: SpecVersion,
+  names: Map<number, string>,
+): SpecRow {
   return {
     id: spec.id,
     code: spec.code,
@@ -62,15 +78,27 @@ export async function listSpecs(): Promise<SpecRow[]> {
 export async function getSpecDetail(id: number, t?: Transaction): Promise<SpecDetail> {
   const spec = await CoatingSpec.findByPk(id, { ...withCustomer, transaction: t })
   if (!spec) throw notFound('Coating spec')
-  const versions = await SpecVersion.findAll({ where: { specId: id }, order: [['version', 'ASC']], transaction: t })
+  const versions = await SpecVersion.findAll({
+    where: { specId: id },
+    order: [['version', 'ASC']],
+    transaction: t,
+  })
   const current = versions.find((v) => v.version === spec.currentVersion)
-  if (!current) throw new Error(`Spec ${spec.code} has no row for its current version ${spec.currentVersion}`)
+  if (!current)
+    throw new Error(`Spec ${spec.code} has no row for its current version ${spec.currentVersion}`)
   const names = await authorNames(versions, t)
-  return { ...toSpecRow(spec, current, names), versions: versions.map((v) => toVersionRow(v, names)) }
+  return {
+    ...toSpecRow(spec, current, names),
+    versions: versions.map((v) => toVersionRow(v, names)),
+  }
 }
 
 /** One version of a spec, for a lot or a certificate that must show exactly what it was judged by. */
-export async function getSpecVersion(specId: number, version: number, t?: Transaction): Promise<SpecVersion> {
+export async function getSpecVersion(
+  specId: number,
+  version: number,
+  t?: Transaction,
+): Promise<SpecVersion> {
   const row = await SpecVersion.findOne({ where: { specId, version }, transaction: t })
   if (!row) throw notFound(`Version ${version} of coating spec #${specId}`)
   return row
@@ -92,12 +120,22 @@ export async function lockSpecVersion(
   t: Transaction,
   actor: AuditActor | null = null,
 ): Promise<SpecVersion> {
-  const row = await SpecVersion.findOne({ where: { specId, version }, lock: t.LOCK.UPDATE, transaction: t })
+  const row = await SpecVersion.findOne({
+    where: { specId, version },
+    lock: t.LOCK.UPDATE,
+    transaction: t,
+  })
   if (!row) throw notFound(`Version ${version} of coating spec #${specId}`)
   if (row.lockedAt) return row
   const before = snapshot(row)
   await row.update({ lockedAt: new Date() }, { transaction: t })
-  await recordAudit(t, actor, { action: 'spec-version.lock', entityType: 'spec-version', entityId: row.id, before, after: row })
+  await recordAudit(t, actor, {
+    action: 'spec-version.lock',
+    entityType: 'spec-version',
+    entityId: row.id,
+    before,
+    after: row,
+  })
   return row
 }
 
@@ -112,14 +150,25 @@ async function assertCustomerExists(customerId: number | null, t: Transaction) {
 export async function createSpec(actor: AuditActor, body: CreateSpecBody): Promise<SpecDetail> {
   return inTransaction(async (t) => {
     const taken = await CoatingSpec.findOne({ where: { code: body.code }, transaction: t })
-    if (taken) throw conflict('duplicate_spec', `A coating spec with the code ${body.code} already exists (${taken.title})`)
+    if (taken)
+      throw conflict(
+        'duplicate_spec',
+        `A coating spec with the code ${body.code} already exists (${taken.title})`,
+      )
     await assertCustomerExists(body.customerId, t)
     const spec = await CoatingSpec.create(
       { code: body.code, title: body.title, customerId: body.customerId, currentVersion: 1 },
       { transaction: t },
     )
     const v1 = await SpecVersion.create(
-      { specId: spec.id, version: 1, content: body.content, changeNote: 'First version', createdBy: actor.id, lockedAt: null },
+      {
+        specId: spec.id,
+        version: 1,
+        content: body.content,
+        changeNote: 'First version',
+        createdBy: actor.id,
+        lockedAt: null,
+      },
       { transaction: t },
     )
     await recordAudit(t, actor, {
@@ -137,7 +186,11 @@ export async function createSpec(actor: AuditActor, body: CreateSpecBody): Promi
  * content becomes version N+1 and the old version stays exactly as the lots saw it.
  * The same content again changes only the title (no empty new version).
  */
-export async function updateSpec(actor: AuditActor, id: number, body: UpdateSpecBody): Promise<SpecDetail> {
+export async function updateSpec(
+  actor: AuditActor,
+  id: number,
+  body: UpdateSpecBody,
+): Promise<SpecDetail> {
   return inTransaction(async (t) => {
     const spec = await CoatingSpec.findByPk(id, { lock: t.LOCK.UPDATE, transaction: t })
     if (!spec) throw notFound('Coating spec')
@@ -165,7 +218,10 @@ export async function updateSpec(actor: AuditActor, id: number, body: UpdateSpec
       await spec.update({ currentVersion: version.version }, { transaction: t })
     } else if (contentChanged) {
       action = 'spec.edit-in-place'
-      await current.update({ content: body.content, changeNote: body.changeNote || current.changeNote }, { transaction: t })
+      await current.update(
+        { content: body.content, changeNote: body.changeNote || current.changeNote },
+        { transaction: t },
+      )
     }
     if (titleChanged) await spec.update({ title: body.title }, { transaction: t })
     await recordAudit(t, actor, {
@@ -181,7 +237,11 @@ export async function updateSpec(actor: AuditActor, id: number, body: UpdateSpec
 }
 
 async function getSpecVersionForUpdate(specId: number, version: number, t: Transaction) {
-  const row = await SpecVersion.findOne({ where: { specId, version }, lock: t.LOCK.UPDATE, transaction: t })
+  const row = await SpecVersion.findOne({
+    where: { specId, version },
+    lock: t.LOCK.UPDATE,
+    transaction: t,
+  })
   if (!row) throw new Error(`Spec #${specId} has no row for its current version ${version}`)
   return row
 }

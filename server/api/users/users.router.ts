@@ -13,8 +13,10 @@ r.post('/', { roles: ADMIN, body: createUserSchema }, async ({ user, body, res }
   return createUser(user, body)
 })
 
-r.patch('/:id', { roles: ADMIN, params: idParams, body: updateUserSchema }, ({ user, params, body }) =>
-  updateUser(user, params.id, body),
+r.patch(
+  '/:id',
+  { roles: ADMIN, params: idParams, body: updateUserSchema },
+  ({ user, params, body }) => updateUser(user, params.id, body),
 )
 
 r.post(

@@ -33,26 +33,41 @@ export function toUserRow(user: UserWithCustomer): UserRow {
 export async function listUsers(): Promise<UserRow[]> {
   const users = await User.findAll({
     include: [{ model: Customer, as: 'customer' }],
-    order: [['name', 'ASC'], ['id', 'ASC']],
+    order: [
+      ['name', 'ASC'],
+      ['id', 'ASC'],
+    ],
   })
   return users.map(toUserRow)
 }
 
 async function loadRow(id: number, t: Transaction): Promise<UserRow> {
-  const user = await User.findByPk(id, { include: [{ model: Customer, as: 'customer' }], transaction: t })
+  const user = await User.findByPk(id, {
+    include: [{ model: Customer, as: 'customer' }],
+    transaction: t,
+  })
   if (!user) throw notFound('User')
   return toUserRow(user)
 }
 
 async function assertCustomerExists(customerId: number, t: Transaction) {
   const customer = await Customer.findByPk(customerId, { transaction: t })
-  if (!customer) throw fieldError('body.customerId', `Customer #${customerId} does not exist`, 'invalid_reference')
+  if (!customer)
+    throw fieldError(
+      'body.customerId',
+      `Customer #${customerId} does not exist`,
+      'invalid_reference',
+    )
 }
 
 export async function createUser(actor: AuditActor, body: CreateUserBody): Promise<UserRow> {
   return inTransaction(async (t) => {
-    const taken = await User.findOne({ where: where(fn('lower', col('email')), body.email), transaction: t })
-    if (taken) throw conflict('duplicate_email', `A user with the e-mail ${body.email} already exists`)
+    const taken = await User.findOne({
+      where: where(fn('lower', col('email')), body.email),
+      transaction: t,
+    })
+    if (taken)
+      throw conflict('duplicate_email', `A user with the e-mail ${body.email} already exists`)
     const customerId = body.role === 'customer' ? (body.customerId ?? null) : null
     if (customerId !== null) await assertCustomerExists(customerId, t)
     const user = await User.create(
@@ -67,7 +82,12 @@ export async function createUser(actor: AuditActor, body: CreateUserBody): Promi
       },
       { transaction: t },
     )
-    await recordAudit(t, actor, { action: 'user.create', entityType: 'user', entityId: user.id, after: user })
+    await recordAudit(t, actor, {
+      action: 'user.create',
+      entityType: 'user',
+      entityId: user.id,
+      after: user,
+    })
     return loadRow(user.id, t)
   })
 }
@@ -76,10 +96,20 @@ export async function createUser(actor: AuditActor, body: CreateUserBody): Promi
  * Someone must always be able to manage people and specs: refuses a change that would leave no
  * active admin. The admins' rows are locked so two admins cannot demote each other at once.
  */
-async function assertAnAdminRemains(target: User, nextRole: Role, nextActive: boolean, t: Transaction) {
-  const losesAnAdmin = target.role === 'admin' && target.active && (nextRole !== 'admin' || !nextActive)
+async function assertAnAdminRemains(
+  target: User,
+  nextRole: Role,
+  nextActive: boolean,
+  t: Transaction,
+) {
+  const losesAnAdmin =
+    target.role === 'admin' && target.active && (nextRole !== 'admin' || !nextActive)
   if (!losesAnAdmin) return
-  const admins = await User.findAll({ where: { role: 'admin', active: true }, lock: t.LOCK.UPDATE, transaction: t })
+  const admins = await User.findAll({
+    where: { role: 'admin', active: true },
+    lock: t.LOCK.UPDATE,
+    transaction: t,
+  })
   if (admins.every((a) => a.id === target.id)) {
     const what = nextActive ? 'given another role' : 'deactivated'
     throw conflict(
@@ -89,7 +119,11 @@ async function assertAnAdminRemains(target: User, nextRole: Role, nextActive: bo
   }
 }
 
-export async function updateUser(actor: AuditActor, id: number, body: UpdateUserBody): Promise<UserRow> {
+export async function updateUser(
+  actor: AuditActor,
+  id: number,
+  body: UpdateUserBody,
+): Promise<UserRow> {
   return inTransaction(async (t) => {
     const user = await User.findByPk(id, { lock: t.LOCK.UPDATE, transaction: t })
     if (!user) throw notFound('User')
@@ -97,17 +131,26 @@ export async function updateUser(actor: AuditActor, id: number, body: UpdateUser
     const nextRole = body.role ?? user.role
     const nextActive = body.active ?? user.active
     if (user.id === actor.id && nextActive === false && user.active) {
-      throw conflict('self_deactivation', 'You cannot deactivate your own account; ask another administrator')
+      throw conflict(
+        'self_deactivation',
+        'You cannot deactivate your own account; ask another administrator',
+      )
     }
     // A customer user belongs to exactly one company; staff belong to none (the table checks it too).
     let nextCustomerId = body.customerId !== undefined ? body.customerId : user.customerId
     if (nextRole !== 'customer') {
       if (body.customerId != null) {
-        throw fieldError('body.customerId', 'Staff belong to no customer company; leave the customer empty')
+        throw fieldError(
+          'body.customerId',
+          'Staff belong to no customer company; leave the customer empty',
+        )
       }
       nextCustomerId = null
     } else if (nextCustomerId == null) {
-      throw fieldError('body.customerId', 'A customer user needs the customer company they belong to')
+      throw fieldError(
+        'body.customerId',
+        'A customer user needs the customer company they belong to',
+      )
     } else if (nextCustomerId !== user.customerId) {
       await assertCustomerExists(nextCustomerId, t)
     }
@@ -120,15 +163,30 @@ export async function updateUser(actor: AuditActor, id: number, body: UpdateUser
     if (nextCustomerId !== user.customerId) changes.customerId = nextCustomerId
     if (Object.keys(changes).length > 0) {
       await user.update({ ...changes, version: user.version + 1 }, { transaction: t })
-      const action = changes.active === false ? 'user.deactivate' : changes.active ? 'user.reactivate' : 'user.update'
-      await recordAudit(t, actor, { action, entityType: 'user', entityId: user.id, before, after: user })
+      const action =
+        changes.active === false
+          ? 'user.deactivate'
+          : changes.active
+            ? 'user.reactivate'
+            : 'user.update'
+      await recordAudit(t, actor, {
+        action,
+        entityType: 'user',
+        entityId: user.id,
+        before,
+        after: user,
+      })
     }
     return loadRow(user.id, t)
   })
 }
 
 /** Sets a new password, ends every session signed with the old one and lifts a lockout. */
-export async function resetPassword(actor: AuditActor, id: number, password: string): Promise<UserRow> {
+export async function resetPassword(
+  actor: AuditActor,
+  id: number,
+  password: string,
+): Promise<UserRow> {
   return inTransaction(async (t) => {
     const user = await User.findByPk(id, { lock: t.LOCK.UPDATE, transaction: t })
     if (!user) throw notFound('User')

@@ -9,7 +9,10 @@ export const DEMO_CUSTOMERS = [
     address: 'Treatment Works Road, Ashvale (fictional)',
     thicknessUnit: 'mil' as const,
     contacts: [
-      { name: 'Certificates inbox, Ashvale Water Board', email: 'certificates@ashvale-water.example' },
+      {
+        name: 'Certificates inbox, Ashvale Water Board',
+        email: 'certificates@ashvale-water.example',
+      },
       { name: 'Taylor Brook (buyer)', email: 'buyer@ashvale-water.example' },
     ],
   },
@@ -19,7 +22,10 @@ export const DEMO_CUSTOMERS = [
     address: '2 Reservoir Close, Wrenfield (fictional)',
     thicknessUnit: 'um' as const,
     contacts: [
-      { name: 'Quality office, Wrenfield Water Authority', email: 'quality@wrenfield-water.example' },
+      {
+        name: 'Quality office, Wrenfield Water Authority',
+        email: 'quality@wrenfield-water.example',
+      },
       { name: 'Jamie Sorrel (network engineer)', email: 'j.sorrel@wrenfield-water.example' },
     ],
   },
@@ -28,7 +34,9 @@ export const DEMO_CUSTOMERS = [
     name: 'Brackenholt Water Company',
     address: 'Pumping Station 7, Brackenholt (fictional)',
     thicknessUnit: 'mil' as const,
-    contacts: [{ name: 'Incoming inspection, Brackenholt', email: 'inspection@brackenholt-water.example' }],
+    contacts: [
+      { name: 'Incoming inspection, Brackenholt', email: 'inspection@brackenholt-water.example' },
+    ],
   },
   {
     code: 'OPC',
@@ -36,7 +44,10 @@ export const DEMO_CUSTOMERS = [
     address: 'Yard 4, Canal Wharf, Ostmere (fictional)',
     thicknessUnit: 'um' as const,
     contacts: [
-      { name: 'Site QA, Ostmere Pipeline Contractors', email: 'site-qa@ostmere-contractors.example' },
+      {
+        name: 'Site QA, Ostmere Pipeline Contractors',
+        email: 'site-qa@ostmere-contractors.example',
+      },
       { name: 'Procurement, Ostmere', email: 'purchasing@ostmere-contractors.example' },
     ],
   },
@@ -63,7 +74,10 @@ export const customersSeeder: Seeder = {
         })
         count(ctx, 'customer contacts', !existing)
         if (existing) continue
-        const row = await CustomerContact.create({ customerId: customer.id, ...contact }, { transaction: t })
+        const row = await CustomerContact.create(
+          { customerId: customer.id, ...contact },
+          { transaction: t },
+        )
         await auditSeed(ctx, 'customer-contact', row.id, row)
       }
     }

@@ -16,11 +16,22 @@ export { DEMO_PASSWORD } from './demoPassword'
  * The demo seed for Harrowgate Flow Works, in order (customers before the customer user and the
  * customers' specs). Later features append their own seeders (e.g. months of lots) here.
  */
-export const SEEDERS: Seeder[] = [settingsSeeder, customersSeeder, usersSeeder, specsSeeder, instrumentsSeeder]
+export const SEEDERS: Seeder[] = [
+  settingsSeeder,
+  customersSeeder,
+  usersSeeder,
+  specsSeeder,
+  instrumentsSeeder,
+]
 
 /** Which `once` seeders have run, and when; kept in the settings table. */
 export const SEED_MARKER_KEY = 'seed'
-type SeedMarker = { runs: number; firstRunAt: string; lastRunAt: string; once: Record<string, string> }
+type SeedMarker = {
+  runs: number
+  firstRunAt: string
+  lastRunAt: string
+  once: Record<string, string>
+}
 
 export interface SeedSummary {
   today: string
@@ -32,12 +43,22 @@ export interface SeedSummary {
  * Runs every seeder in one transaction (all or nothing) under an advisory lock, so two starts
  * at once cannot seed twice. Safe to run again: see Seeder.
  */
-export async function runSeed(seeders: Seeder[] = SEEDERS, today: string = localIsoDate()): Promise<SeedSummary> {
+export async function runSeed(
+  seeders: Seeder[] = SEEDERS,
+  today: string = localIsoDate(),
+): Promise<SeedSummary> {
   return inTransaction(async (t) => {
-    await sequelize.query("SELECT pg_advisory_xact_lock(hashtext('filmtrail-demo-seed'))", { transaction: t })
+    await sequelize.query("SELECT pg_advisory_xact_lock(hashtext('filmtrail-demo-seed'))", {
+      transaction: t,
+    })
     const markerRow = await Setting.findByPk(SEED_MARKER_KEY, { transaction: t })
     const now = new Date().toISOString()
-    const marker: SeedMarker = (markerRow?.value as SeedMarker | undefined) ?? { runs: 0, firstRunAt: now, lastRunAt: now, once: {} }
+    const marker: SeedMarker = (markerRow?.value as SeedMarker | undefined) ?? {
+      runs: 0,
+      firstRunAt: now,
+      lastRunAt: now,
+      once: {},
+    }
     const ctx: SeedContext = { t, today, tally: {} }
     const skipped: string[] = []
     for (const seeder of seeders) {

@@ -17,16 +17,76 @@ interface DemoInstrument {
  * 30 days and one is overdue, so Setup → Instruments shows each state from the first start.
  */
 export const DEMO_INSTRUMENTS: DemoInstrument[] = [
-  { kind: 'dft-gauge-type2', serial: 'HFW-DFT2-0417', description: 'FBE line gauge, probe F', dueInDays: 160, certificateRef: 'CAL-HFW-1107' },
-  { kind: 'dft-gauge-type2', serial: 'HFW-DFT2-0523', description: 'Liquid booth gauge', dueInDays: 12, certificateRef: 'CAL-HFW-1042' },
-  { kind: 'dft-gauge-type1', serial: 'HFW-DFT1-0088', description: 'Pencil-type pull-off gauge (referee)', dueInDays: 240, certificateRef: 'CAL-HFW-1120' },
-  { kind: 'holiday-high-voltage', serial: 'HFW-HV-0031', description: 'Spark tester, 0.5–15 kV', dueInDays: 95, certificateRef: 'CAL-HFW-1090' },
-  { kind: 'holiday-low-voltage', serial: 'HFW-LV-0014', description: 'Wet-sponge tester', dueInDays: 200, certificateRef: 'CAL-HFW-1101' },
-  { kind: 'profile-gauge', serial: 'HFW-PRF-0206', description: 'Depth micrometer, flat-base probe', dueInDays: 130, certificateRef: 'CAL-HFW-1077' },
-  { kind: 'replica-tape-micrometer', serial: 'HFW-RTM-0119', description: 'Spring micrometer for replica tape', dueInDays: 300, certificateRef: 'CAL-HFW-1133' },
-  { kind: 'surface-thermometer', serial: 'HFW-STH-0342', description: 'Magnetic surface thermometer', dueInDays: 75, certificateRef: 'CAL-HFW-1066' },
-  { kind: 'hygrometer', serial: 'HFW-HYG-0057', description: 'Electronic hygrometer, booth', dueInDays: -6, certificateRef: 'CAL-HFW-0981' },
-  { kind: 'oven-recorder', serial: 'HFW-OVN-0009', description: 'Six-channel cure-oven recorder', dueInDays: 45, certificateRef: 'CAL-HFW-1055' },
+  {
+    kind: 'dft-gauge-type2',
+    serial: 'HFW-DFT2-0417',
+    description: 'FBE line gauge, probe F',
+    dueInDays: 160,
+    certificateRef: 'CAL-HFW-1107',
+  },
+  {
+    kind: 'dft-gauge-type2',
+    serial: 'HFW-DFT2-0523',
+    description: 'Liquid booth gauge',
+    dueInDays: 12,
+    certificateRef: 'CAL-HFW-1042',
+  },
+  {
+    kind: 'dft-gauge-type1',
+    serial: 'HFW-DFT1-0088',
+    description: 'Pencil-type pull-off gauge (referee)',
+    dueInDays: 240,
+    certificateRef: 'CAL-HFW-1120',
+  },
+  {
+    kind: 'holiday-high-voltage',
+    serial: 'HFW-HV-0031',
+    description: 'Spark tester, 0.5–15 kV',
+    dueInDays: 95,
+    certificateRef: 'CAL-HFW-1090',
+  },
+  {
+    kind: 'holiday-low-voltage',
+    serial: 'HFW-LV-0014',
+    description: 'Wet-sponge tester',
+    dueInDays: 200,
+    certificateRef: 'CAL-HFW-1101',
+  },
+  {
+    kind: 'profile-gauge',
+    serial: 'HFW-PRF-0206',
+    description: 'Depth micrometer, flat-base probe',
+    dueInDays: 130,
+    certificateRef: 'CAL-HFW-1077',
+  },
+  {
+    kind: 'replica-tape-micrometer',
+    serial: 'HFW-RTM-0119',
+    description: 'Spring micrometer for replica tape',
+    dueInDays: 300,
+    certificateRef: 'CAL-HFW-1133',
+  },
+  {
+    kind: 'surface-thermometer',
+    serial: 'HFW-STH-0342',
+    description: 'Magnetic surface thermometer',
+    dueInDays: 75,
+    certificateRef: 'CAL-HFW-1066',
+  },
+  {
+    kind: 'hygrometer',
+    serial: 'HFW-HYG-0057',
+    description: 'Electronic hygrometer, booth',
+    dueInDays: -6,
+    certificateRef: 'CAL-HFW-0981',
+  },
+  {
+    kind: 'oven-recorder',
+    serial: 'HFW-OVN-0009',
+    description: 'Six-channel cure-oven recorder',
+    dueInDays: 45,
+    certificateRef: 'CAL-HFW-1055',
+  },
 ]
 
 export const instrumentsSeeder: Seeder = {

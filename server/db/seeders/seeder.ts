@@ -28,7 +28,12 @@ export function count(ctx: SeedContext, what: string, created: boolean) {
 }
 
 /** Seeded rows get an audit event too (actor: none, note: demo seed), so the trail has no gaps. */
-export function auditSeed(ctx: SeedContext, entityType: string, entityId: number | string, after: unknown) {
+export function auditSeed(
+  ctx: SeedContext,
+  entityType: string,
+  entityId: number | string,
+  after: unknown,
+) {
   return recordAudit(ctx.t, null, {
     action: `${entityType}.create`,
     entityType,
