@@ -22,7 +22,10 @@ const email = z.string().trim().toLowerCase().email('Enter an e-mail address').m
 const isoDate = z
   .string()
   .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date as YYYY-MM-DD')
-  .refine((d) => new Date(`${d}T00:00:00Z`).toISOString().startsWith(d), 'No such calendar date')
+  .refine((d) => {
+    const parsed = new Date(`${d}T00:00:00Z`)
+    return !Number.isNaN(parsed.getTime()) && parsed.toISOString().startsWith(d)
+  }, 'No such calendar date')
 
 export const createUserSchema = z
   .object({

@@ -64,15 +64,12 @@ describe('Setup → Instruments and calibration', () => {
       .send({ kind: 'hygrometer', serial: 'DUP-SN-1', calibrationDueOn: '2099-01-01' })
     expect(dup.status).toBe(409)
     expect(dup.body.error.message).toContain('DUP-SN-1')
-    const backwards = await request(app)
-      .post('/api/instruments')
-      .set('Authorization', admin)
-      .send({
-        kind: 'hygrometer',
-        serial: 'BW-1',
-        calibratedOn: '2026-06-01',
-        calibrationDueOn: '2026-05-01',
-      })
+    const backwards = await request(app).post('/api/instruments').set('Authorization', admin).send({
+      kind: 'hygrometer',
+      serial: 'BW-1',
+      calibratedOn: '2026-06-01',
+      calibrationDueOn: '2026-05-01',
+    })
     expect(backwards.status).toBe(400)
     expect(fieldsOf(backwards.body)).toContain('body.calibrationDueOn')
     const impossible = await request(app)
@@ -81,6 +78,11 @@ describe('Setup → Instruments and calibration', () => {
       .send({ kind: 'hygrometer', serial: 'IM-1', calibrationDueOn: '2026-02-30' })
     expect(impossible.status).toBe(400)
     expect(fieldsOf(impossible.body)).toContain('body.calibrationDueOn')
+    const month13 = await request(app)
+      .post('/api/instruments')
+      .set('Authorization', admin)
+      .send({ kind: 'hygrometer', serial: 'IM-2', calibrationDueOn: '2026-13-01' })
+    expect(month13.status).toBe(400)
     const badKind = await request(app)
       .post('/api/instruments')
       .set('Authorization', admin)
