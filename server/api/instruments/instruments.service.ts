@@ -146,17 +146,19 @@ function kindNames(kinds: readonly InstrumentKind[]): string {
 /**
  * For the readings feature: refuses a reading taken with an instrument that is unknown (400),
  * of the wrong kind (400), retired (409) or out of calibration on the reading's date (409).
- * `atDate` is the day the reading was taken (a Date, or YYYY-MM-DD); returns the instrument.
+ * `atDate` is the day the reading was taken (a Date, or YYYY-MM-DD); `field` names the input in the
+ * error details. Returns the instrument.
  */
 export async function assertInstrumentUsable(
   instrumentId: number,
   kinds: readonly InstrumentKind[],
   atDate: Date | string,
   t?: Transaction,
+  field = 'body.instrumentId',
 ): Promise<Instrument> {
   const instrument = await Instrument.findByPk(instrumentId, { transaction: t })
   const fieldError = (status: number, code: string, message: string) =>
-    new HttpError(status, code, message, [{ field: 'instrumentId', message }])
+    new HttpError(status, code, message, [{ field, message }])
   if (!instrument)
     throw fieldError(400, 'invalid_reference', `Instrument #${instrumentId} is not registered`)
   if (kinds.length > 0 && !kinds.includes(instrument.kind)) {

@@ -154,7 +154,7 @@ describe('Setup → Instruments and calibration', () => {
     ).resolves.toBeTruthy()
     await expect(
       assertInstrumentUsable(999999, ['surface-thermometer'], today),
-    ).rejects.toMatchObject({ status: 400 })
+    ).rejects.toMatchObject({ status: 400, details: [{ field: 'body.instrumentId' }] })
 
     await request(app)
       .patch(`/api/instruments/${thermometer.id}`)
