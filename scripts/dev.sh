@@ -13,8 +13,10 @@ export PUBLIC_URL=${PUBLIC_URL:-http://127.0.0.1:$VITE_PORT}
 
 stack_prepare "$PORT" "$SMTP_PORT" "$MAILDEV_WEB_PORT" "$VITE_PORT"
 start_maildev
+stack_migrate_seed
 bg 'the API (tsx watch)' "$PORT" "$BIN/tsx" watch --clear-screen=false server/index.ts
 bg 'the Vite dev server' "$VITE_PORT" "$BIN/vite" --host 127.0.0.1 --port "$VITE_PORT" --strictPort
+collect_sign_ins
 bg_ready
 print_banner "http://127.0.0.1:$VITE_PORT   (API on http://127.0.0.1:$PORT)"
 stack_wait

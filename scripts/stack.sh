@@ -34,7 +34,7 @@ stack_shutdown() {
   say 'Stopped.'
 }
 
-# Installs what is missing, starts the dev database, migrates and seeds.
+# Installs what is missing, checks the ports are free, starts the dev database.
 stack_prepare() {
   local port
   ensure_system_packages pg
@@ -48,6 +48,10 @@ stack_prepare() {
   pg_running "$ROOT/.data/pg" || PG_STARTED_HERE=1
   db start dev
   export DATABASE_URL=${DATABASE_URL:-$(db url dev)}
+}
+
+# Migrations, then the demo seed (idempotent: adds only what is missing).
+stack_migrate_seed() {
   tsnode server/cli/migrate.ts
   if [ -f server/cli/seed.ts ]; then
     tsnode server/cli/seed.ts
@@ -84,22 +88,19 @@ start_maildev() {
     --web "$MAILDEV_WEB_PORT" --ip 127.0.0.1 --web-ip 127.0.0.1 --mail-directory .data/mail --silent
 }
 
+# The seed's own list of demo accounts (scripts/sign-ins.ts); runs while the programs start up.
+collect_sign_ins() {
+  SIGN_INS=$(tsnode scripts/sign-ins.ts 2>/dev/null | sed 's/^/  /' || true)
+  [ -n "$SIGN_INS" ] || SIGN_INS='  Demo sign-ins: see README.md (the seed did not say)'
+}
+
 print_banner() {
-  local app_url=$1 password customer
-  password=$(sed -n "s/.*DEMO_PASSWORD = '\(.*\)'.*/\1/p" server/db/seeders/demoPassword.ts 2>/dev/null || true)
-  customer=$(env -u FILMTRAIL_RUN_ID "$PGBIN/psql" "$DATABASE_URL" -tAc \
-    "SELECT email FROM users WHERE role = 'customer' AND active ORDER BY id LIMIT 1" 2>/dev/null || true)
   cat >&2 <<EOF
 
   Filmtrail is running (NODE_ENV=$NODE_ENV)
-    App       $app_url
+    App       $1
     Mailbox   $MAILBOX_URL   (every e-mail the app sends lands here; nothing leaves the machine)
-  Demo sign-ins, all with the password ${password:-in server/db/seeders/demoPassword.ts}
-    operator@harrowgate.example     coating operator
-    supervisor@harrowgate.example   line supervisor
-    manager@harrowgate.example      quality manager
-    admin@harrowgate.example        administrator
-    ${customer:-(no customer user yet: the seed makes one)}${customer:+   customer (portal, read-only)}
+$SIGN_INS
   Ctrl-C stops everything.
 
 EOF

@@ -14,6 +14,9 @@ stack_env
 export PUBLIC_URL=${PUBLIC_URL:-http://127.0.0.1:$PORT}
 
 stack_prepare "$PORT" "$SMTP_PORT" "$MAILDEV_WEB_PORT"
+# the mailbox takes ~2 s to come up: let it do so during the migrations and the seed
+start_maildev
+stack_migrate_seed
 
 if [ -f index.html ]; then
   # rebuild only when a client source is newer than the last build
@@ -26,8 +29,8 @@ else
   say 'No index.html yet: serving the API only.'
 fi
 
-start_maildev
 bg 'the server' "$PORT" node --import tsx server/index.ts
+collect_sign_ins
 bg_ready
 print_banner "http://127.0.0.1:$PORT"
 stack_wait
