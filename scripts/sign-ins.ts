@@ -6,5 +6,6 @@ import { DEMO_SIGN_INS } from '../server/db/seeders/users.seed'
 import { DEMO_PASSWORD } from '../server/db/seeders/demoPassword'
 
 console.log(`Demo sign-ins, all with the password ${DEMO_PASSWORD}`)
-for (const s of DEMO_SIGN_INS) console.log(`  ${s.email.padEnd(32)} ${s.role.padEnd(11)} ${s.purpose}`)
+for (const s of DEMO_SIGN_INS)
+  console.log(`  ${s.email.padEnd(32)} ${s.role.padEnd(11)} ${s.purpose}`)
 process.exit(0)
