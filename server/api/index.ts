@@ -6,6 +6,11 @@ import { customersRouter } from './customers/customers.router'
 import { specsRouter } from './specs/specs.router'
 import { instrumentsRouter } from './instruments/instruments.router'
 import { settingsRouter } from './settings/settings.router'
+import { lotsRouter } from './lots/lots.router'
+import { partsRouter } from './parts/parts.router'
+import { partReadingsRouter, readingsRouter } from './readings/readings.router'
+import { verificationsRouter } from './verifications/verifications.router'
+import { photosRouter } from './photos/photos.router'
 
 /** Every feature's router, mounted at its base path by app.ts. Add a feature here. */
 export const apiRouters: { basePath: string; router: Router }[] = [
@@ -16,4 +21,10 @@ export const apiRouters: { basePath: string; router: Router }[] = [
   specsRouter,
   instrumentsRouter,
   settingsRouter,
+  lotsRouter,
+  partsRouter,
+  partReadingsRouter,
+  readingsRouter,
+  verificationsRouter,
+  photosRouter,
 ]

@@ -19,7 +19,11 @@ import type { SpecContent } from '../spec/specContent'
  *   POST /api/instruments/:id/verifications                              shift verification (FLOOR)
  *   GET  /api/instruments/:id/verifications                              (staff)
  *   POST /api/parts/:id/photos (multipart: file, caption, clientId)      (FLOOR)
+ *   POST /api/lots/:id/photos  (multipart: file, caption, clientId, partId?) a lot-level photo (FLOOR)
  *   GET  /api/photos/:id, /api/photos/:id/thumb                          image bytes (staff)
+ * List: answers LotRow[] (newest first) with the total count in the X-Total-Count header.
+ * Write answers: lots → LotDetail, parts and sections → PartDetail, readings → ReadingsBatchResult,
+ * discard → DiscardResult, verification → VerificationResult, photo → PhotoRow.
  * Every write carries `clientId`, a UUID made on the device: the same write sent twice is stored once
  * (the second answers the stored record with 200).
  */
@@ -217,6 +221,7 @@ export interface LotDetail extends LotRow {
   spec: SpecContent
   parts: PartRow[]
   lotVerdict: { status: 'pass' | 'fail' | 'incomplete'; reason: string }
+  photos: PhotoRow[]
 }
 
 export interface PhotoRow {
@@ -226,4 +231,47 @@ export interface PhotoRow {
   width: number
   height: number
   uploaded: Stamp
+}
+
+/** Answer of POST /api/parts/:id/readings: 201 when anything new was stored, 200 for a replay. */
+export interface ReadingsBatchResult {
+  /** The batch's readings as stored, in the order sent. */
+  readings: ReadingRow[]
+  /** How many were new (0 for a replayed batch). */
+  storedCount: number
+  partId: number
+  partVersion: number
+  verdict: PartVerdict
+}
+
+/** Answer of POST /api/readings/:id/discard. */
+export interface DiscardResult {
+  reading: ReadingRow
+  partVersion: number
+  verdict: PartVerdict
+}
+
+export interface VerificationRow {
+  id: number
+  clientId: string
+  instrumentId: number
+  instrumentSerial: string
+  referenceNominalUm: number
+  toleranceUm: number
+  readingUm: number
+  /** |reading − nominal| ≤ tolerance. */
+  passed: boolean
+  occasion: 'start-of-shift' | 'end-of-shift' | 'other'
+  verified: Stamp
+}
+
+/** Answer of POST /api/instruments/:id/verifications. */
+export interface VerificationResult {
+  verification: VerificationRow
+  /** Readings newly marked suspect by a failed verification (0 when it passed). */
+  suspectCount: number
+  /** Parts whose verdict was recomputed. */
+  affectedPartIds: number[]
+  /** Lot numbers of released or rejected lots holding suspect readings: their verdicts stay as released; raise a nonconformance. */
+  closedLotsAffected: string[]
 }

@@ -1,0 +1,64 @@
+import { QueryTypes, type Transaction } from 'sequelize'
+import { sequelize } from '../../db'
+import { evaluatePart, type PartVerdict } from '../../../shared/rules/evaluatePart'
+import type { SpecContent } from '../../../shared/spec/specContent'
+import {
+  assemblePartInput,
+  partInfoFor,
+  thicknessMeanUm,
+  type ReadingRowInput,
+  type SectionRowInput,
+} from '../../../shared/inspection/assemblePartInput'
+
+export interface PartForVerdict {
+  id: number
+  round: number
+  partNumber: string
+  heatNumber: string
+  coatedAreaM2: number | null
+}
+
+/** The part's current sections and live readings, in one round trip. */
+async function loadRows(partId: number, round: number, t: Transaction) {
+  const [row] = await sequelize.query<{ sections: SectionRowInput[] | null; readings: ReadingRowInput[] | null }>(
+    `SELECT
+       (SELECT json_agg(json_build_object('section', s.section, 'round', s.round, 'data', s.data) ORDER BY s.id)
+          FROM (SELECT DISTINCT ON (section) id, section, round, data FROM section_records
+                 WHERE part_id = $1 AND round = $2 ORDER BY section, id DESC) s) AS sections,
+       (SELECT json_agg(json_build_object('round', r.round, 'areaNo', r.area_no, 'spotNo', r.spot_no,
+                 'thicknessUm', r.thickness_um, 'discarded', false, 'suspect', r.suspect,
+                 'instrumentKind', i.kind) ORDER BY r.area_no, r.spot_no, r.id)
+          FROM gauge_readings r JOIN instruments i ON i.id = r.instrument_id
+         WHERE r.part_id = $1 AND r.round = $2 AND r.discarded_at IS NULL) AS readings`,
+    { bind: [partId, round], type: QueryTypes.SELECT, transaction: t },
+  )
+  return { sections: row?.sections ?? [], readings: row?.readings ?? [] }
+}
+
+/** The verdict of a part from rows (no database): what the seed and the server both use. */
+export function verdictFromRows(
+  spec: SpecContent,
+  part: PartForVerdict,
+  sections: readonly SectionRowInput[],
+  readings: readonly ReadingRowInput[],
+): { verdict: PartVerdict; thicknessMeanUm: number | null } {
+  const input = assemblePartInput(spec.thickness.rule, part.round, sections, readings)
+  return { verdict: evaluatePart(spec, partInfoFor(part), input), thicknessMeanUm: thicknessMeanUm(input) }
+}
+
+/**
+ * After every write to a part, inside the same transaction (the caller holds the part's row
+ * lock): recompute the verdict from what is stored and store it, with the round-1 status kept
+ * for first-pass yield and the mean thickness for trends.
+ */
+export async function recomputePartVerdict(spec: SpecContent, part: PartForVerdict, t: Transaction): Promise<PartVerdict> {
+  const { sections, readings } = await loadRows(part.id, part.round, t)
+  const { verdict, thicknessMeanUm: meanUm } = verdictFromRows(spec, part, sections, readings)
+  await sequelize.query(
+    `UPDATE parts SET verdict = $2, verdict_status = $3, thickness_mean_um = $4,
+       first_pass_status = CASE WHEN round = 1 THEN $3 ELSE first_pass_status END, updated_at = now()
+     WHERE id = $1`,
+    { bind: [part.id, JSON.stringify(verdict), verdict.status, meanUm], transaction: t },
+  )
+  return verdict
+}

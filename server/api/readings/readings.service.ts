@@ -1,0 +1,174 @@
+import { QueryTypes, type Transaction } from 'sequelize'
+import type { z } from 'zod'
+import { inTransaction, sequelize } from '../../db'
+import { recordAudit, type AuditActor } from '../../audit/audit.service'
+import { HttpError, conflict } from '../../lib/httpError'
+import type { ReadingRow, ReadingsBatchResult, readingSchema } from '../../../shared/api/lots'
+import type { PartVerdict } from '../../../shared/rules/evaluatePart'
+import { localIsoDate } from '../../../shared/api/calibration'
+import { assertInstrumentUsable } from '../instruments/instruments.service'
+import { assertLotOpen } from '../lots/lotGuards'
+import { lockPartForWrite, type LockedPart } from '../parts/partLock'
+import { recomputePartVerdict } from '../parts/partVerdict'
+import { readingRows } from '../parts/partDetail'
+import { FOREIGN_CLIENT_IDS, INSERT_READINGS } from './readings.sql'
+
+type ReadingBody = z.infer<typeof readingSchema>
+export type Recorder = AuditActor & { name: string }
+
+export const DFT_GAUGE_KINDS = ['dft-gauge-type1', 'dft-gauge-type2'] as const
+/** Tablet clocks drift; a reading "taken" further ahead than this is a wrong clock, not a reading. */
+const FUTURE_SLACK_MS = 10 * 60_000
+
+function checkBatchShape(readings: ReadingBody[]) {
+  const seen = new Set<string>()
+  const now = Date.now()
+  readings.forEach((r, i) => {
+    if (seen.has(r.clientId)) {
+      const message = 'The same clientId appears twice in one batch'
+      throw new HttpError(400, 'invalid_input', message, [{ field: `body.readings.${i}.clientId`, message }])
+    }
+    seen.add(r.clientId)
+    if (r.takenAt && Date.parse(r.takenAt) > now + FUTURE_SLACK_MS) {
+      const message = `Reading taken at ${r.takenAt} is in the future: check the tablet's clock`
+      throw new HttpError(400, 'invalid_input', message, [{ field: `body.readings.${i}.takenAt`, message }])
+    }
+  })
+}
+
+/** Each distinct gauge, on each day it was used, must be a DFT gauge in calibration. */
+async function checkGauges(readings: ReadingBody[], t: Transaction): Promise<Map<number, string>> {
+  const serials = new Map<number, string>()
+  const checked = new Set<string>()
+  for (const r of readings) {
+    const day = r.takenAt ? localIsoDate(new Date(r.takenAt)) : localIsoDate()
+    const key = `${r.instrumentId}@${day}`
+    if (checked.has(key)) continue
+    checked.add(key)
+    const instrument = await assertInstrumentUsable(r.instrumentId, DFT_GAUGE_KINDS, day, t)
+    serials.set(instrument.id, instrument.serial)
+  }
+  return serials
+}
+
+async function storedVerdict(partId: number, t: Transaction): Promise<PartVerdict> {
+  const [row] = await sequelize.query<{ verdict: PartVerdict }>('SELECT verdict FROM parts WHERE id = $1', {
+    bind: [partId],
+    type: QueryTypes.SELECT,
+    transaction: t,
+  })
+  return row!.verdict
+}
+
+function inSentOrder(rows: ReadingRow[], readings: ReadingBody[]): ReadingRow[] {
+  const byClient = new Map(rows.map((r) => [r.clientId, r]))
+  return readings.flatMap((r) => byClient.get(r.clientId) ?? [])
+}
+
+/** A batch whose every reading is already stored for this part: answer it as stored. */
+async function replayOf(part: LockedPart, readings: ReadingBody[], t: Transaction) {
+  const ids = readings.map((r) => r.clientId)
+  const stored = await readingRows('r.client_id = ANY($1::uuid[]) AND r.part_id = $2', [ids, part.id], t)
+  return stored.length === readings.length ? inSentOrder(stored, readings) : null
+}
+
+/**
+ * POST /api/parts/:id/readings. One INSERT for the batch, one query for the part's rows, one
+ * UPDATE for its verdict, one audit event: all in one transaction. Idempotent by clientId.
+ */
+export async function postReadings(
+  actor: Recorder,
+  partId: number,
+  readings: ReadingBody[],
+): Promise<{ result: ReadingsBatchResult; created: boolean }> {
+  checkBatchShape(readings)
+  return inTransaction(async (t) => {
+    const part = await lockPartForWrite(partId, t)
+    const replayAnswer = async (rows: ReadingRow[]) => ({
+      result: { readings: rows, storedCount: 0, partId, partVersion: part.version, verdict: await storedVerdict(partId, t) },
+      created: false,
+    })
+    let serials: Map<number, string>
+    try {
+      assertLotOpen({ lotNumber: part.lotNumber, status: part.lotStatus }, 'before readings are added')
+      serials = await checkGauges(readings, t)
+    } catch (err) {
+      // The answer to a batch that was stored may have been lost on the way back to the
+      // tablet; its resend must not fail just because the lot has moved on since.
+      const rows = await replayOf(part, readings, t)
+      if (rows) return replayAnswer(rows)
+      throw err
+    }
+    const inserted = await sequelize.query<{ id: string; client_id: string; suspect: boolean; taken_at: Date; recorded_at: Date }>(
+      INSERT_READINGS,
+      {
+        bind: [
+          part.id,
+          part.lotId,
+          part.round,
+          actor.id,
+          readings.map((r) => r.areaNo),
+          readings.map((r) => r.spotNo),
+          readings.map((r) => r.thicknessUm),
+          readings.map((r) => r.instrumentId),
+          readings.map((r) => r.takenAt ?? null),
+          readings.map((r) => r.clientId),
+        ],
+        type: QueryTypes.SELECT,
+        transaction: t,
+      },
+    )
+    if (inserted.length < readings.length) {
+      const foreign = await sequelize.query(FOREIGN_CLIENT_IDS, {
+        bind: [readings.map((r) => r.clientId), part.id],
+        type: QueryTypes.SELECT,
+        transaction: t,
+      })
+      if (foreign.length) throw conflict('client_id_reused', 'A clientId of this batch already belongs to a reading of another part')
+    }
+    if (inserted.length === 0) return replayAnswer(inSentOrder(await readingRows('r.client_id = ANY($1::uuid[])', [readings.map((r) => r.clientId)], t), readings))
+
+    const verdict = await recomputePartVerdict(part.spec, part, t)
+    await recordAudit(t, actor, {
+      action: 'readings.record',
+      entityType: 'part',
+      entityId: part.id,
+      lotId: part.lotId,
+      after: {
+        readingIds: inserted.map((r) => String(r.id)),
+        round: part.round,
+        suspectCount: inserted.filter((r) => r.suspect).length,
+        verdictStatus: verdict.status,
+        progress: verdict.samplingPlan.progress,
+      },
+    })
+    let rows: ReadingRow[]
+    if (inserted.length === readings.length) {
+      const byClient = new Map(inserted.map((r) => [r.client_id, r]))
+      rows = readings.map((r) => {
+        const s = byClient.get(r.clientId)!
+        return {
+          id: String(s.id),
+          clientId: r.clientId,
+          round: part.round,
+          areaNo: r.areaNo,
+          spotNo: r.spotNo,
+          thicknessUm: r.thicknessUm,
+          instrumentId: r.instrumentId,
+          instrumentSerial: serials.get(r.instrumentId)!,
+          suspect: s.suspect,
+          discarded: false,
+          discardReason: null,
+          takenAt: new Date(s.taken_at).toISOString(),
+          recorded: { byId: actor.id, byName: actor.name, at: new Date(s.recorded_at).toISOString() },
+        }
+      })
+    } else {
+      rows = inSentOrder(await readingRows('r.client_id = ANY($1::uuid[])', [readings.map((r) => r.clientId)], t), readings)
+    }
+    return {
+      result: { readings: rows, storedCount: inserted.length, partId: part.id, partVersion: part.version, verdict },
+      created: true,
+    }
+  })
+}
