@@ -65,9 +65,9 @@ export function partBody(extra: Record<string, unknown> = {}) {
 }
 
 /** Five spots of three readings in one area (a part under 100 ft² is one area: SSPC-PA 2 [R]). */
-export function spotReadings(instrumentId: number, spotsUm: number[][], areaNo = 1) {
+export function spotReadings(instrumentId: number, spotsUm: number[][], areaNo = 1, firstSpotNo = 1) {
   return spotsUm.flatMap((readings, s) =>
-    readings.map((thicknessUm) => ({ clientId: uuid(), areaNo, spotNo: s + 1, thicknessUm, instrumentId })),
+    readings.map((thicknessUm) => ({ clientId: uuid(), areaNo, spotNo: firstSpotNo + s, thicknessUm, instrumentId })),
   )
 }
 
