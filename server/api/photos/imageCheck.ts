@@ -25,7 +25,8 @@ export async function checkImage(data: Buffer): Promise<CheckedImage> {
   const options = { limitInputPixels: MAX_PHOTO_PIXELS, failOn: 'error' as const }
   let meta: Metadata
   try {
-    meta = await sharp(data, options).metadata()
+    // The header alone (no pixels decoded), read without the limit so the answer can name the size.
+    meta = await sharp(data, { limitInputPixels: false, failOn: 'error' }).metadata()
   } catch {
     throw notAnImage()
   }
