@@ -11,6 +11,10 @@ import { partsRouter } from './parts/parts.router'
 import { partReadingsRouter, readingsRouter } from './readings/readings.router'
 import { verificationsRouter } from './verifications/verifications.router'
 import { photosRouter } from './photos/photos.router'
+import { lotReviewRouter, reviewRouter } from './review/review.router'
+import { nonconformancesRouter } from './nonconformances/nonconformances.router'
+import { defectTypesRouter } from './defect-types/defectTypes.router'
+import { auditRouter } from './audit/audit.router'
 
 /** Every feature's router, mounted at its base path by app.ts. Add a feature here. */
 export const apiRouters: { basePath: string; router: Router }[] = [
@@ -27,4 +31,9 @@ export const apiRouters: { basePath: string; router: Router }[] = [
   readingsRouter,
   verificationsRouter,
   photosRouter,
+  lotReviewRouter,
+  reviewRouter,
+  nonconformancesRouter,
+  defectTypesRouter,
+  auditRouter,
 ]

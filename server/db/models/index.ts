@@ -44,3 +44,18 @@ Photo.belongsTo(User, { foreignKey: 'uploadedBy', as: 'uploader' })
 export { User, Customer, CustomerContact, CoatingSpec, SpecVersion, Instrument, AuditEvent, Setting }
 export { Lot, Part, SectionRecord, GaugeReading, InstrumentVerification, Photo }
 
+// QA review (migration 0003).
+import { DefectType } from './DefectType'
+import { Nonconformance } from './Nonconformance'
+import { NonconformancePart } from './NonconformancePart'
+import { LotDecision } from './LotDecision'
+
+Nonconformance.belongsTo(Lot, { foreignKey: 'lotId', as: 'lot' })
+Nonconformance.belongsTo(DefectType, { foreignKey: 'defectTypeId', as: 'defectType' })
+Nonconformance.hasMany(NonconformancePart, { foreignKey: 'nonconformanceId', as: 'partLinks' })
+NonconformancePart.belongsTo(Part, { foreignKey: 'partId', as: 'part' })
+Lot.hasMany(Nonconformance, { foreignKey: 'lotId', as: 'nonconformances' })
+Lot.hasMany(LotDecision, { foreignKey: 'lotId', as: 'decisions' })
+LotDecision.belongsTo(User, { foreignKey: 'decidedBy', as: 'decider' })
+
+export { DefectType, Nonconformance, NonconformancePart, LotDecision }
