@@ -7,6 +7,7 @@ import { customersSeeder } from './customers.seed'
 import { usersSeeder } from './users.seed'
 import { specsSeeder } from './specs.seed'
 import { instrumentsSeeder } from './instruments.seed'
+import { floorHistorySeeder } from './floorHistory.seed'
 
 export { DEMO_SIGN_INS, type DemoSignIn } from './users.seed'
 export { DEMO_LINES, DEMO_SHIFTS } from './settings.seed'
@@ -22,6 +23,7 @@ export const SEEDERS: Seeder[] = [
   usersSeeder,
   specsSeeder,
   instrumentsSeeder,
+  floorHistorySeeder,
 ]
 
 /** Which `once` seeders have run, and when; kept in the settings table. */
