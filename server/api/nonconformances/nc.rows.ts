@@ -1,7 +1,7 @@
 import { QueryTypes, type Transaction } from 'sequelize'
 import { sequelize } from '../../db'
 import { notFound } from '../../lib/httpError'
-import type { Stamp } from '../../../shared/api/lots'
+import type { PhotoRow, Stamp } from '../../../shared/api/lots'
 import type { Disposition, NcStatus, NonconformanceRow } from '../../../shared/api/review'
 
 interface NcSqlRow {
@@ -91,4 +91,44 @@ export async function ncRow(id: number, t?: Transaction): Promise<Nonconformance
   const [row] = await ncRows('n.id = $1', [id], t)
   if (!row) throw notFound(`Nonconformance #${id}`)
   return row
+}
+
+/** Photos filed under a nonconformance, oldest first. */
+export async function ncPhotoRows(ncId: number, t?: Transaction): Promise<PhotoRow[]> {
+  const rows = await sequelize.query<{
+    id: number
+    part_id: number | null
+    caption: string
+    width: number
+    height: number
+    uploaded_by: number
+    uploader_name: string
+    uploaded_at: Date
+  }>(
+    `SELECT p.id, p.part_id, p.caption, p.width, p.height, p.uploaded_by, u.name AS uploader_name, p.uploaded_at
+       FROM photos p JOIN users u ON u.id = p.uploaded_by WHERE p.nonconformance_id = $1 ORDER BY p.id`,
+    { bind: [ncId], type: QueryTypes.SELECT, transaction: t },
+  )
+  return rows.map((r) => ({
+    id: r.id,
+    partId: r.part_id,
+    caption: r.caption,
+    width: r.width,
+    height: r.height,
+    uploaded: { byId: r.uploaded_by, byName: r.uploader_name, at: new Date(r.uploaded_at).toISOString() },
+  }))
+}
+
+/** GET /api/nonconformances/:id: the record with its photos (the contract's row plus `photos`). */
+export async function ncDetail(id: number): Promise<NonconformanceRow & { photos: PhotoRow[] }> {
+  return { ...(await ncRow(id)), photos: await ncPhotoRows(id) }
+}
+
+/** GET /api/nonconformances?status&lotId, oldest first. */
+export function listNcs(query: { status?: NcStatus; lotId?: number }): Promise<NonconformanceRow[]> {
+  const where: string[] = []
+  const bind: unknown[] = []
+  if (query.status) where.push(`n.status = $${bind.push(query.status)}`)
+  if (query.lotId) where.push(`n.lot_id = $${bind.push(query.lotId)}`)
+  return ncRows(where.join(' AND '), bind)
 }

@@ -3,7 +3,8 @@ import { idParams, secureRouter } from '../secureRouter'
 import { FLOOR, QA, STAFF } from '../../../shared/api/roles'
 import { NC_STATUSES, closeNcSchema, createNcSchema, dispositionSchema } from '../../../shared/api/review'
 import { createManualNc } from './nc.create'
-import { ncRow, ncRows } from './nc.rows'
+import { ncDetail, listNcs } from './nc.rows'
+import { uploadNcPhoto } from './nc.photos'
 import { closeNc, dispositionNc } from './disposition.service'
 
 /** Nonconformance records: opened on the floor or at the desk, dispositioned and closed by QA. */
@@ -14,13 +15,7 @@ const listQuery = z.object({
   lotId: z.coerce.number().int().positive().max(2147483647).optional(),
 })
 
-nonconformancesRouter.get('/', { roles: STAFF, query: listQuery }, ({ query }) => {
-  const where: string[] = []
-  const bind: unknown[] = []
-  if (query.status) where.push(`n.status = $${bind.push(query.status)}`)
-  if (query.lotId) where.push(`n.lot_id = $${bind.push(query.lotId)}`)
-  return ncRows(where.join(' AND '), bind)
-})
+nonconformancesRouter.get('/', { roles: STAFF, query: listQuery }, ({ query }) => listNcs(query))
 
 const FLOOR_AND_QA = [...new Set([...FLOOR, ...QA])]
 
@@ -29,7 +24,7 @@ nonconformancesRouter.post('/', { roles: FLOOR_AND_QA, body: createNcSchema }, a
   return createManualNc(user, body)
 })
 
-nonconformancesRouter.get('/:id', { roles: STAFF, params: idParams }, ({ params }) => ncRow(params.id))
+nonconformancesRouter.get('/:id', { roles: STAFF, params: idParams }, ({ params }) => ncDetail(params.id))
 
 nonconformancesRouter.post(
   '/:id/disposition',
@@ -40,3 +35,9 @@ nonconformancesRouter.post(
 nonconformancesRouter.post('/:id/close', { roles: QA, params: idParams, body: closeNcSchema }, ({ user, params, body }) =>
   closeNc(user, params.id, body),
 )
+
+nonconformancesRouter.post('/:id/photos', { roles: FLOOR_AND_QA, params: idParams }, async ({ req, res, params, user }) => {
+  const { photo, created } = await uploadNcPhoto(user, params.id, req, res)
+  res.status(created ? 201 : 200)
+  return photo
+})
