@@ -17,9 +17,11 @@ const STATUS_WORDS: Record<Exclude<LotStatus, 'open'>, string> = {
 export function assertLotOpen(lot: { lotNumber: string; status: LotStatus }, doing: string) {
   if (lot.status === 'open') return
   const advice =
-    lot.status === 'released' || lot.status === 'rejected'
-      ? 'its inspection records can no longer change'
-      : `a supervisor must reopen it ${doing}`
+    lot.status === 'released'
+      ? 'its inspection records can no longer change; to correct them, reopen the lot with a reason (QA)'
+      : lot.status === 'rejected'
+        ? 'its inspection records can no longer change'
+        : `a supervisor must reopen it ${doing}`
   throw new HttpError(409, 'lot_not_open', `Lot ${lot.lotNumber} ${STATUS_WORDS[lot.status]}: ${advice}`, {
     lotNumber: lot.lotNumber,
     status: lot.status,

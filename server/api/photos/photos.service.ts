@@ -55,7 +55,7 @@ export function toPhotoRow(p: Photo, byName: string): PhotoRow {
  */
 export async function uploadPhoto(
   actor: AuditActor & { name: string },
-  target: { partId?: number; lotId?: number },
+  target: { partId?: number; lotId?: number; nonconformanceId?: number },
   req: Request,
   res: Response,
 ): Promise<{ photo: PhotoRow; created: boolean }> {
@@ -87,12 +87,13 @@ export async function uploadPhoto(
     }
     const lot = await Lot.findByPk(lotId!, { lock: t.LOCK.SHARE, transaction: t })
     if (!lot) throw notFound(`Lot #${lotId}`)
-    assertLotOpen(lot, 'before photos are added')
+    // Evidence of a nonconformance may come in any lot state (damage is found on the dock too).
+    if (target.nonconformanceId === undefined) assertLotOpen(lot, 'before photos are added')
     const photo = await Photo.create(
       {
         lotId: lot.id,
         partId,
-        nonconformanceId: null,
+        nonconformanceId: target.nonconformanceId ?? null,
         caption: fields.data.caption,
         mime: image.mime,
         byteSize: file.size,
