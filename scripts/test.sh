@@ -59,7 +59,8 @@ step() {
   kill_leftovers
 }
 
-[ "$QUICK" = 1 ] || step 'lint' "$BIN/eslint" .
+[ "$QUICK" = 1 ] ||
+  step 'lint' "$BIN/eslint" . --cache --cache-strategy content --cache-location node_modules/.cache/eslint/
 step 'type-check' "$BIN/vue-tsc" --noEmit -p tsconfig.json
 step 'client build' "$BIN/vite" build --logLevel warn
 if [ "$QUICK" = 1 ]; then
