@@ -4,7 +4,7 @@
 #   starts a throwaway PostgreSQL (.data/pg-test, 127.0.0.1:54339, fsync off, wiped each run),
 #   then: lint, type-check, client build, vitest (unit, client, api, e2e). Every step runs even
 #   after a failure, so one run shows everything; the exit status is non-zero if any failed.
-# Options: --quick   skip lint and the browser (e2e) tests
+# Options: --quick   skip lint, the client build and the browser (e2e) tests
 #          anything else is passed to vitest, e.g. `npm test -- tests/unit`
 # Nothing stays running afterwards: the cluster is stopped and leftovers are killed on exit.
 set -euo pipefail
@@ -28,8 +28,11 @@ ensure_node_modules
 
 export TEST_PGPORT=${TEST_PGPORT:-54339}
 export TEST_ADMIN_DATABASE_URL=postgres://postgres@127.0.0.1:$TEST_PGPORT/postgres
-# Tests set their own configuration; a developer's shell or .env must not leak in.
-unset DATABASE_URL JWT_SECRET JWT_SECRET_FILE PORT NODE_ENV
+# Tests set their own configuration: nothing from a developer's shell may leak in (the server's
+# variables, as in server/config/env.ts and .env.example).
+unset NODE_ENV HOST PORT DATABASE_URL DB_POOL_MAX JWT_SECRET JWT_SECRET_FILE JWT_TTL_SECONDS \
+  SMTP_HOST SMTP_PORT MAIL_FROM MAILBOX_URL PUBLIC_URL UPLOAD_MAX_BYTES LOG_LEVEL CLIENT_DIST \
+  OUTBOX_POLL_MS LOGIN_RATE_LIMIT
 
 cleanup() {
   local rc=$?
@@ -62,7 +65,8 @@ step() {
 [ "$QUICK" = 1 ] ||
   step 'lint' "$BIN/eslint" . --cache --cache-strategy content --cache-location node_modules/.cache/eslint/
 step 'type-check' "$BIN/vue-tsc" --noEmit -p tsconfig.json
-step 'client build' "$BIN/vite" build --logLevel warn
+# the browser tests serve dist/
+[ "$QUICK" = 1 ] || step 'client build' "$BIN/vite" build --logLevel warn
 if [ "$QUICK" = 1 ]; then
   step 'tests' "$BIN/vitest" run --project unit --project client --project api "${VITEST_ARGS[@]}"
 else
