@@ -1,4 +1,8 @@
-import 'vuetify/styles'
+// Vuetify's layers, reset and utility classes; each component's own CSS comes with it through
+// vite-plugin-vuetify. The named colour palette (bg-red-lighten-2 …) is left out: we use theme colours.
+import 'vuetify/styles/layers'
+import 'vuetify/styles/core'
+import 'vuetify/styles/utilities'
 import { createVuetify, type ThemeDefinition } from 'vuetify'
 import { aliases, mdi } from 'vuetify/iconsets/mdi-svg'
 
@@ -30,7 +34,7 @@ export const vuetify = createVuetify({
   icons: { defaultSet: 'mdi', aliases, sets: { mdi } },
   defaults: {
     // Gloved fingers at the line: comfortable density and 48 px targets by default.
-    VBtn: { size: 'large', rounded: 'lg' },
+    VBtn: { size: 'large', rounded: 'lg', minHeight: 48 },
     VTextField: { variant: 'outlined', color: 'primary' },
     VTextarea: { variant: 'outlined', color: 'primary' },
     VSelect: { variant: 'outlined', color: 'primary' },

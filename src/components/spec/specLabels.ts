@@ -7,6 +7,11 @@ export const COATING_TYPE_LABELS: Record<C['coatingType'], string> = {
   'liquid-epoxy': 'Two-part liquid epoxy',
   primer: 'Primer',
 }
+export const COATING_TYPE_SHORT: Record<C['coatingType'], string> = {
+  FBE: 'FBE',
+  'liquid-epoxy': 'Liquid epoxy',
+  primer: 'Primer',
+}
 export const THICKNESS_RULE_LABELS: Record<C['thickness']['rule'], string> = {
   'SSPC-PA2': 'SSPC-PA 2 — spot and area measurements',
   'ISO-19840': 'ISO 19840 — readings against the NDFT (80/20 rule)',
@@ -52,9 +57,15 @@ export const CROSS_CUT_LABELS: Record<'A' | 'B', string> = {
 
 /** v-select items from a label table; `numeric` for number-keyed tables (PA 2 levels). */
 export function items<K extends string>(labels: Record<K, string>): { value: K; title: string }[]
-export function items(labels: Record<number, string>, numeric: true): { value: number; title: string }[]
+export function items(
+  labels: Record<number, string>,
+  numeric: true,
+): { value: number; title: string }[]
 export function items(labels: Record<string, string>, numeric = false) {
-  return Object.entries(labels).map(([value, title]) => ({ value: numeric ? Number(value) : value, title }))
+  return Object.entries(labels).map(([value, title]) => ({
+    value: numeric ? Number(value) : value,
+    title,
+  }))
 }
 
 export function ruleSummary(t: C['thickness']): string {

@@ -1,0 +1,81 @@
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { chromium, type BrowserContext, type Page } from 'playwright-core'
+import { BASE_URL, SCREENSHOT_DIR } from './serverInfo'
+import { DEMO_PASSWORD } from '../../../server/db/seeders/demoPassword'
+
+export { BASE_URL, DEMO_PASSWORD }
+
+export const VIEWPORTS = {
+  desktop: { width: 1440, height: 900 },
+  tabletLandscape: { width: 1280, height: 800 },
+  tabletPortrait: { width: 800, height: 1280 },
+} as const
+
+export interface BrowserSession {
+  context: BrowserContext
+  page: Page
+  /** Every console error and failed request, so a test can assert the page ran clean. */
+  problems: string[]
+  close: () => Promise<void>
+}
+
+/** Debian's Chromium through playwright-core, in a fresh profile that is deleted on close. */
+export async function openBrowser(
+  viewport: { width: number; height: number } = VIEWPORTS.desktop,
+): Promise<BrowserSession> {
+  const profile = mkdtempSync(join(tmpdir(), 'filmtrail-e2e-'))
+  const context = await chromium.launchPersistentContext(profile, {
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    viewport,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
+  })
+  const page = context.pages()[0] ?? (await context.newPage())
+  // A step that has not happened in 10 s is a failure, not a slow machine.
+  page.setDefaultTimeout(10_000)
+  const problems: string[] = []
+  page.on('console', (m) => m.type() === 'error' && problems.push(`console: ${m.text()}`))
+  page.on('pageerror', (e) => problems.push(`page error: ${e.message}`))
+  page.on('requestfailed', (r) =>
+    problems.push(`request failed: ${r.url()} ${r.failure()?.errorText ?? ''}`),
+  )
+  return {
+    context,
+    page,
+    problems,
+    close: async () => {
+      await context.close()
+      rmSync(profile, { recursive: true, force: true })
+    },
+  }
+}
+
+/** Signs in through the real form, as a person would, and waits for the signed-in shell. */
+export async function signIn(page: Page, email: string, password: string = DEMO_PASSWORD) {
+  if (!page.url().includes('/sign-in')) await page.goto(`${BASE_URL}/sign-in`)
+  await page.getByLabel('E-mail').fill(email)
+  await page.getByLabel('Password', { exact: true }).fill(password)
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await page.getByRole('button', { name: 'Your account and units' }).waitFor()
+}
+
+/** Picks `option` in the Vuetify select labelled `label` (its input is hidden; the field is the target). */
+export async function chooseOption(page: Page, label: string, option: string) {
+  const field = page.locator('.v-input').filter({ has: page.locator('label', { hasText: label }) })
+  await field.locator('.v-field').first().click()
+  await page.getByRole('option', { name: option, exact: true }).click()
+}
+
+export async function screenshot(page: Page, name: string, fullPage = true) {
+  await page.screenshot({ path: join(SCREENSHOT_DIR, `${name}.png`), fullPage })
+}
