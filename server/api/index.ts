@@ -11,6 +11,7 @@ import { partsRouter } from './parts/parts.router'
 import { partReadingsRouter, readingsRouter } from './readings/readings.router'
 import { verificationsRouter } from './verifications/verifications.router'
 import { photosRouter } from './photos/photos.router'
+import { trendsRouter } from './trends/trends.router'
 import { lotReviewRouter, reviewRouter } from './review/review.router'
 import { nonconformancesRouter } from './nonconformances/nonconformances.router'
 import { defectTypesRouter } from './defect-types/defectTypes.router'
@@ -31,6 +32,7 @@ export const apiRouters: { basePath: string; router: Router }[] = [
   readingsRouter,
   verificationsRouter,
   photosRouter,
+  trendsRouter,
   lotReviewRouter,
   reviewRouter,
   nonconformancesRouter,

@@ -1,5 +1,6 @@
 import { createRouter, createWebHistory, type RouteRecordRaw } from 'vue-router'
 import { ADMIN, FLOOR, ROLES, STAFF, type Role } from '@shared/api/roles'
+import { TRENDS_ROLES } from '@shared/api/trends'
 import { useSessionStore } from '@/stores/session'
 import { ROUTES } from './routeNames'
 import { roleHome } from './navigation'
@@ -121,6 +122,12 @@ const routes: RouteRecordRaw[] = [
         meta: { roles: FLOOR, title: 'Waiting to send' },
       },
     ],
+  },
+  {
+    path: '/line-health',
+    name: ROUTES.trends,
+    component: () => import('@/views/trends/TrendsView.vue'),
+    meta: { roles: TRENDS_ROLES, title: 'Line health' },
   },
   { path: '/:pathMatch(.*)*', redirect: { name: ROUTES.home } },
 ]

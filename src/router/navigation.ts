@@ -7,6 +7,7 @@
 import type { RouteLocationRaw, Router } from 'vue-router'
 import {
   mdiAccountGroupOutline,
+  mdiChartTimelineVariant,
   mdiClipboardListOutline,
   mdiCloudUploadOutline,
   mdiCogOutline,
@@ -38,6 +39,17 @@ export const NAV_GROUPS: NavGroup[] = [
     entries: [
       { title: 'Lots', icon: mdiClipboardListOutline, route: ROUTES.floorLots, hint: 'Open a lot, inspect its parts' },
       { title: 'Waiting to send', icon: mdiCloudUploadOutline, route: ROUTES.floorQueue, hint: 'Records kept on this tablet' },
+    ],
+  },
+  {
+    heading: 'Plant',
+    entries: [
+      {
+        title: 'Line health',
+        icon: mdiChartTimelineVariant,
+        route: ROUTES.trends,
+        hint: 'Yield, reject causes, thickness capability',
+      },
     ],
   },
   {

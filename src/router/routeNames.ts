@@ -16,6 +16,8 @@ export const ROUTES = {
   floorLot: 'floor-lot',
   floorPart: 'floor-part',
   floorQueue: 'floor-queue',
+  // Line health (trends) for plant managers.
+  trends: 'trends',
 } as const
 
 export type RouteName = (typeof ROUTES)[keyof typeof ROUTES]

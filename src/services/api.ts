@@ -82,7 +82,37 @@ async function request<T>(method: Method, path: string, body?: unknown): Promise
   return data as T
 }
 
+/**
+ * A file download (CSV, PDF) with the same bearer token and error handling as `request`: the
+ * caller turns the Blob into a download link. The file name comes from Content-Disposition.
+ */
+async function requestBlob(path: string): Promise<{ blob: Blob; fileName: string | null }> {
+  const token = hooks.getToken()
+  const headers: Record<string, string> = {}
+  if (token) headers.Authorization = `Bearer ${token}`
+  let res: Response
+  try {
+    res = await fetch(path, { headers })
+  } catch {
+    throw new ApiError(0, 'network', 'Cannot reach the Filmtrail server. Check the connection and try again.')
+  }
+  if (!res.ok) {
+    let error: ApiErrorBody['error'] | undefined
+    try {
+      error = ((await res.json()) as Partial<ApiErrorBody>).error
+    } catch {
+      error = undefined
+    }
+    if (res.status === 401 && token) hooks.onSessionEnded()
+    throw new ApiError(res.status, error?.code ?? 'http_error', error?.message ?? `The server answered ${res.status}`, error?.details)
+  }
+  const disposition = res.headers.get('Content-Disposition') ?? ''
+  const fileName = /filename="([^"]+)"/.exec(disposition)?.[1] ?? null
+  return { blob: await res.blob(), fileName }
+}
+
 export const api = {
+  getBlob: requestBlob,
   get: <T>(path: string) => request<T>('GET', path),
   post: <T>(path: string, body?: unknown) => request<T>('POST', path, body ?? {}),
   put: <T>(path: string, body: unknown) => request<T>('PUT', path, body),
