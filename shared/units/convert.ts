@@ -68,7 +68,11 @@ export function formatThickness(um: number | null | undefined, unit: ThicknessUn
 }
 
 /** "250–400 µm", "9.8–15.7 mil", or "≥ 250 µm" when the band has no maximum. */
-export function formatThicknessBand(minUm: number, maxUm: number | null, unit: ThicknessUnit): string {
+export function formatThicknessBand(
+  minUm: number,
+  maxUm: number | null,
+  unit: ThicknessUnit,
+): string {
   const d = THICKNESS_DECIMALS[unit]
   const label = THICKNESS_UNIT_LABELS[unit]
   const min = formatFixed(thicknessFromUm(minUm, unit), d)
@@ -76,12 +80,20 @@ export function formatThicknessBand(minUm: number, maxUm: number | null, unit: T
   return `${min}–${formatFixed(thicknessFromUm(maxUm, unit), d)} ${label}`
 }
 
-export function formatTemperature(c: number | null | undefined, unit: TemperatureUnit, decimals = 1): string {
+export function formatTemperature(
+  c: number | null | undefined,
+  unit: TemperatureUnit,
+  decimals = 1,
+): string {
   if (c === null || c === undefined) return '–'
   return `${formatFixed(temperatureFromC(c, unit), decimals)} ${TEMPERATURE_UNIT_LABELS[unit]}`
 }
 
-export function formatTemperatureDelta(deltaC: number, unit: TemperatureUnit, decimals = 1): string {
+export function formatTemperatureDelta(
+  deltaC: number,
+  unit: TemperatureUnit,
+  decimals = 1,
+): string {
   return `${formatFixed(temperatureDeltaFromC(deltaC, unit), decimals)} ${TEMPERATURE_UNIT_LABELS[unit]}`
 }
 

@@ -38,7 +38,8 @@ export function useUnits() {
     fromStored,
     toStored,
     thickness: (um: number | null | undefined) => u.formatThickness(um, units.value.thickness),
-    band: (minUm: number, maxUm: number | null) => u.formatThicknessBand(minUm, maxUm, units.value.thickness),
+    band: (minUm: number, maxUm: number | null) =>
+      u.formatThicknessBand(minUm, maxUm, units.value.thickness),
     temperature: (c: number | null | undefined) => u.formatTemperature(c, units.value.temperature),
     temperatureDelta: (c: number) => u.formatTemperatureDelta(c, units.value.temperature),
     area: (m2: number | null | undefined) => u.formatArea(m2, units.value.area),

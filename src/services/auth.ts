@@ -8,5 +8,6 @@ export type UnitPreferences = z.infer<typeof unitPreferencesSchema>
 export const authApi = {
   login: (body: LoginBody) => api.post<LoginResponse>('/api/auth/login', body),
   me: () => api.get<{ user: SessionUser }>('/api/auth/me'),
-  setPreferences: (body: UnitPreferences) => api.patch<{ user: SessionUser }>('/api/auth/me/preferences', body),
+  setPreferences: (body: UnitPreferences) =>
+    api.patch<{ user: SessionUser }>('/api/auth/me/preferences', body),
 }

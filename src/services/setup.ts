@@ -26,7 +26,8 @@ type In<S extends z.ZodType> = z.input<S>
 export const usersApi = {
   list: () => api.get<UserRow[]>('/api/users'),
   create: (body: In<typeof createUserSchema>) => api.post<UserRow>('/api/users', body),
-  update: (id: number, body: In<typeof updateUserSchema>) => api.patch<UserRow>(`/api/users/${id}`, body),
+  update: (id: number, body: In<typeof updateUserSchema>) =>
+    api.patch<UserRow>(`/api/users/${id}`, body),
   resetPassword: (id: number, password: string) =>
     api.post<UserRow>(`/api/users/${id}/reset-password`, { password }),
 }
@@ -46,14 +47,17 @@ export const customersApi = {
 export const specsApi = {
   list: () => api.get<SpecRow[]>('/api/specs'),
   get: (id: number) => api.get<SpecDetail>(`/api/specs/${id}`),
-  version: (id: number, version: number) => api.get<SpecVersionRow>(`/api/specs/${id}/versions/${version}`),
+  version: (id: number, version: number) =>
+    api.get<SpecVersionRow>(`/api/specs/${id}/versions/${version}`),
   create: (body: In<typeof createSpecSchema>) => api.post<SpecDetail>('/api/specs', body),
-  update: (id: number, body: In<typeof updateSpecSchema>) => api.put<SpecDetail>(`/api/specs/${id}`, body),
+  update: (id: number, body: In<typeof updateSpecSchema>) =>
+    api.put<SpecDetail>(`/api/specs/${id}`, body),
 }
 
 export const instrumentsApi = {
   list: () => api.get<InstrumentRow[]>('/api/instruments'),
-  create: (body: In<typeof createInstrumentSchema>) => api.post<InstrumentRow>('/api/instruments', body),
+  create: (body: In<typeof createInstrumentSchema>) =>
+    api.post<InstrumentRow>('/api/instruments', body),
   update: (id: number, body: In<typeof updateInstrumentSchema>) =>
     api.patch<InstrumentRow>(`/api/instruments/${id}`, body),
 }

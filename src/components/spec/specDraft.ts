@@ -67,7 +67,18 @@ export function blankContent(bandUnit: 'um' | 'mil'): SpecContentDraft {
   }
 }
 
-export function draftFromVersion(code: string, title: string, customerId: number | null, v: SpecVersionRow): SpecDraft {
+export function draftFromVersion(
+  code: string,
+  title: string,
+  customerId: number | null,
+  v: SpecVersionRow,
+): SpecDraft {
   // A deep copy: editing the form must not change the loaded version shown beside it.
-  return { code, title, customerId, changeNote: '', content: structuredClone(v.content) as SpecContentDraft }
+  return {
+    code,
+    title,
+    customerId,
+    changeNote: '',
+    content: structuredClone(v.content) as SpecContentDraft,
+  }
 }
