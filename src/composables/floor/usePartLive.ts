@@ -96,7 +96,11 @@ export function usePartLive(
     if (d) return d.instrumentId
     const waiting = [...pending.value].reverse().find((e) => e.write.kind === 'section' && e.write.section === section)
     if (waiting?.write.kind === 'section') return waiting.write.body.instrumentId
-    return part.value?.sections[section]?.instrumentId ?? null
+    const stored = part.value?.sections[section]?.instrumentId ?? null
+    if (stored !== null || section !== 'thickness-gauge') return stored
+    // No gauge section yet (e.g. readings imported): the gauge of the latest reading is the one in hand.
+    const last = part.value?.readings.filter((r) => !r.discarded).at(-1)
+    return last?.instrumentId ?? null
   }
 
   const kindById = computed(() => new Map(instruments.value.map((i) => [i.id, i.kind])))
