@@ -1,0 +1,58 @@
+/**
+ * Roboto TTF fonts for pdfkit (pdfkit embeds TTF/OTF only; @expo-google-fonts/roboto ships .ttf).
+ *
+ * Speed: fontkit needs ~35 ms to parse a face and read its layout tables, and ~0.5–1 ms to lay
+ * out each word (kerning, ligatures). pdfkit would redo both for every document, so each face is
+ * parsed ONCE per process with pdfkit's own fontkit, and its layout() is memoised across
+ * documents (layoutCache.ts). pdfkit accepts such a parsed font (anything with layout()) and
+ * still builds a fresh glyph subset per document, so the embedded font stays per-file.
+ */
+import { readFileSync } from 'node:fs'
+import { createRequire } from 'node:module'
+import { memoiseLayout, type LayoutFont } from './layoutCache'
+
+const require = createRequire(import.meta.url)
+
+export const FONT = { regular: 'Roboto-Regular', medium: 'Roboto-Medium' } as const
+type FontName = (typeof FONT)[keyof typeof FONT]
+
+const FONT_FILES: Record<FontName, string> = {
+  'Roboto-Regular': '@expo-google-fonts/roboto/400Regular/Roboto_400Regular.ttf',
+  'Roboto-Medium': '@expo-google-fonts/roboto/500Medium/Roboto_500Medium.ttf',
+}
+
+let parsed: Map<FontName, LayoutFont> | null = null
+
+function loadFonts(): Map<FontName, LayoutFont> {
+  // pdfkit's own fontkit, so the object is exactly what pdfkit would have built from the buffer.
+  const fontkit = createRequire(require.resolve('pdfkit'))('fontkit') as {
+    create: (buffer: Uint8Array) => LayoutFont
+  }
+  const fonts = new Map<FontName, LayoutFont>()
+  for (const [name, file] of Object.entries(FONT_FILES) as [FontName, string][]) {
+    const font = memoiseLayout(fontkit.create(readFileSync(fontFilePath(file))))
+    // Read the layout tables now rather than inside the first certificate's timing.
+    font.layout('Certificate 0123456789 µm')
+    fonts.set(name, font)
+  }
+  return fonts
+}
+
+function fontFilePath(file: string): string {
+  return require.resolve(file)
+}
+
+/** Registers the cached faces on one document under the FONT names. */
+export function registerFonts(doc: PDFKit.PDFDocument): void {
+  parsed ??= loadFonts()
+  // pdfkit's types only list buffers and paths as sources; a parsed font is accepted at run time.
+  for (const [name, font] of parsed) doc.registerFont(name, font as unknown as Buffer)
+}
+
+/** File paths of the faces, for tests and tools that want the original TTF. */
+export function fontFilePaths(): Record<FontName, string> {
+  return {
+    'Roboto-Regular': fontFilePath(FONT_FILES['Roboto-Regular']),
+    'Roboto-Medium': fontFilePath(FONT_FILES['Roboto-Medium']),
+  }
+}
