@@ -46,16 +46,11 @@ export async function writeTrendsCsv(input: TrendsFilter, res: Response): Promis
               upper(split_part(p.part_number, '-', 1)) AS part_family, p.description,
               p.heat_number, p.quantity, p.coated_area_m2, p.round, p.first_pass_status,
               p.verdict_status AS current_status, p.thickness_mean_um,
-              (SELECT count(*)::int FROM jsonb_array_elements(h.data -> 'holidays') e
-                WHERE e ->> 'found' = 'true') AS holidays_found_round1,
+              p.holidays_found_r1 AS holidays_found_round1,
               p.created_at::text AS cursor_at, p.id AS cursor_id
          FROM parts p JOIN lots l ON l.id = p.lot_id
          JOIN customers c ON c.id = l.customer_id
          JOIN coating_specs s ON s.id = l.spec_id
-         LEFT JOIN LATERAL (
-           SELECT data FROM section_records r
-            WHERE r.part_id = p.id AND r.round = 1 AND r.section = 'holiday'
-            ORDER BY r.id DESC LIMIT 1) h ON true
         WHERE ${sql.where} ${keyset}
         ORDER BY p.created_at, p.id LIMIT ${PAGE}`,
       { bind: after ? [...sql.bind, after.at, after.id] : sql.bind, type: QueryTypes.SELECT },
