@@ -92,6 +92,8 @@ describe('Setup → Coating specs, in the browser', () => {
     await page.getByRole('button', { name: 'Create spec' }).click()
 
     await page.getByText('Spec created as version 1.').waitFor()
+    await page.getByText('Versions', { exact: true }).waitFor()
+    await screenshot(page, 'spec-detail-1280x800')
     await page.getByRole('link', { name: 'All specs' }).click()
     const row = page.locator('tr[data-spec-code="E2E-FBE-16"]')
     await row.waitFor()
