@@ -4,7 +4,8 @@ import type { ApiError } from '@/services/api'
 import type { PartSession } from './usePart'
 
 /** The part being inspected, shared by its section components (one usePart per screen). */
-const KEY: InjectionKey<PartSession> = Symbol('partSession')
+export const PART_SESSION_KEY: InjectionKey<PartSession> = Symbol('partSession')
+const KEY = PART_SESSION_KEY
 
 export function providePartSession(session: PartSession) {
   provide(KEY, session)
