@@ -77,7 +77,8 @@ export async function lotHistory(lotId: number): Promise<AuditEntry[]> {
 export async function searchAudit(q: AuditQuery): Promise<{ rows: AuditEntry[]; total: number }> {
   const where: string[] = []
   const bind: unknown[] = []
-  const add = (sql: (n: string) => string, value: unknown) => where.push(sql(`$${bind.push(value)}`))
+  const add = (sql: (n: string) => string, value: unknown) =>
+    where.push(sql(`$${bind.push(value)}`))
   if (q.actorId) add((n) => `a.actor_id = ${n}`, q.actorId)
   if (q.entityType) add((n) => `a.entity_type = ${n}`, q.entityType)
   if (q.entityId) add((n) => `a.entity_id = ${n}`, q.entityId)
@@ -92,11 +93,17 @@ export async function searchAudit(q: AuditQuery): Promise<{ rows: AuditEntry[]; 
   if (q.to) add((n) => `a.at < ${n}::date + 1`, q.to)
   const whereSql = where.length ? `WHERE ${where.join(' AND ')}` : ''
   const [rows, [count]] = await Promise.all([
-    sequelize.query<AuditSqlRow>(`${SELECT} ${whereSql} ORDER BY a.at DESC, a.id DESC LIMIT ${q.limit} OFFSET ${q.offset}`, {
+    sequelize.query<AuditSqlRow>(
+      `${SELECT} ${whereSql} ORDER BY a.at DESC, a.id DESC LIMIT ${q.limit} OFFSET ${q.offset}`,
+      {
+        bind,
+        type: QueryTypes.SELECT,
+      },
+    ),
+    sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM audit_events a ${whereSql}`, {
       bind,
       type: QueryTypes.SELECT,
     }),
-    sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM audit_events a ${whereSql}`, { bind, type: QueryTypes.SELECT }),
   ])
   return { rows: rows.map(toEntry), total: count!.n }
 }

@@ -11,7 +11,10 @@ export const DEFAULT_DEFECT_TYPES = [
   { code: 'poor-adhesion', label: 'Poor adhesion' },
   { code: 'under-cure', label: 'Under-cure' },
   { code: 'blast-defect', label: 'Blast defect / surface preparation' },
-  { code: 'climate-out-of-limits', label: 'Climate out of limits (dew point, humidity, temperature)' },
+  {
+    code: 'climate-out-of-limits',
+    label: 'Climate out of limits (dew point, humidity, temperature)',
+  },
   { code: 'contamination', label: 'Contamination (oil, dust, salts, overspray)' },
   { code: 'handling-damage', label: 'Handling damage' },
   { code: 'other', label: 'Other' },

@@ -9,10 +9,14 @@ export const defectTypesRouter = secureRouter('/api/defect-types')
 
 defectTypesRouter.get('/', { roles: STAFF }, () => listDefectTypes())
 
-defectTypesRouter.post('/', { roles: ADMIN, body: defectTypeSchema }, async ({ user, body, res }) => {
-  res.status(201)
-  return createDefectType(user, body)
-})
+defectTypesRouter.post(
+  '/',
+  { roles: ADMIN, body: defectTypeSchema },
+  async ({ user, body, res }) => {
+    res.status(201)
+    return createDefectType(user, body)
+  },
+)
 
 // Written out rather than defectTypeSchema.partial(): zod 4 would fill in active: true.
 const updateDefectTypeSchema = z.object({

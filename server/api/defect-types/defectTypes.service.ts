@@ -16,7 +16,12 @@ export interface DefectTypeRow {
   active: boolean
 }
 
-const toRow = (d: DefectType): DefectTypeRow => ({ id: d.id, code: d.code, label: d.label, active: d.active })
+const toRow = (d: DefectType): DefectTypeRow => ({
+  id: d.id,
+  code: d.code,
+  label: d.label,
+  active: d.active,
+})
 
 export async function listDefectTypes(): Promise<DefectTypeRow[]> {
   const rows = await DefectType.findAll({ order: [['label', 'ASC']] })
@@ -25,14 +30,26 @@ export async function listDefectTypes(): Promise<DefectTypeRow[]> {
 
 async function assertCodeFree(code: string, exceptId: number | null, t: Transaction) {
   const same = await DefectType.findOne({ where: { code }, transaction: t })
-  if (same && same.id !== exceptId) throw conflict('duplicate_code', `A defect type with code ${code} already exists`)
+  if (same && same.id !== exceptId)
+    throw conflict('duplicate_code', `A defect type with code ${code} already exists`)
 }
 
-export async function createDefectType(actor: AuditActor, body: DefectTypeBody): Promise<DefectTypeRow> {
+export async function createDefectType(
+  actor: AuditActor,
+  body: DefectTypeBody,
+): Promise<DefectTypeRow> {
   return inTransaction(async (t) => {
     await assertCodeFree(body.code, null, t)
-    const d = await DefectType.create({ code: body.code, label: body.label, active: body.active }, { transaction: t })
-    await recordAudit(t, actor, { action: 'defect-type.create', entityType: 'defect-type', entityId: d.id, after: toRow(d) })
+    const d = await DefectType.create(
+      { code: body.code, label: body.label, active: body.active },
+      { transaction: t },
+    )
+    await recordAudit(t, actor, {
+      action: 'defect-type.create',
+      entityType: 'defect-type',
+      entityId: d.id,
+      after: toRow(d),
+    })
     return toRow(d)
   })
 }
@@ -50,11 +67,18 @@ export async function updateDefectType(
     const before = snapshot(toRow(d))
     const changes: Partial<DefectTypeBody> = {}
     for (const key of ['code', 'label', 'active'] as const) {
-      if (body[key] !== undefined && body[key] !== d[key]) Object.assign(changes, { [key]: body[key] })
+      if (body[key] !== undefined && body[key] !== d[key])
+        Object.assign(changes, { [key]: body[key] })
     }
     if (Object.keys(changes).length === 0) return toRow(d)
     await d.update({ ...changes, version: d.version + 1 }, { transaction: t })
-    await recordAudit(t, actor, { action: 'defect-type.update', entityType: 'defect-type', entityId: id, before, after: toRow(d) })
+    await recordAudit(t, actor, {
+      action: 'defect-type.update',
+      entityType: 'defect-type',
+      entityId: id,
+      before,
+      after: toRow(d),
+    })
     return toRow(d)
   })
 }
@@ -64,11 +88,18 @@ export async function updateDefectType(
  * removed it or the database was never seeded: an automatic nonconformance must never fail
  * for want of a list entry.
  */
-export async function ensureDefectType(code: DefaultDefectCode, t: Transaction): Promise<DefectType> {
+export async function ensureDefectType(
+  code: DefaultDefectCode,
+  t: Transaction,
+): Promise<DefectType> {
   const found = await DefectType.findOne({ where: { code }, transaction: t })
   if (found) return found
   const entry = DEFAULT_DEFECT_TYPES.find((d) => d.code === code)!
-  const [d] = await DefectType.findOrCreate({ where: { code }, defaults: { code, label: entry.label }, transaction: t })
+  const [d] = await DefectType.findOrCreate({
+    where: { code },
+    defaults: { code, label: entry.label },
+    transaction: t,
+  })
   await recordAudit(t, null, {
     action: 'defect-type.create',
     entityType: 'defect-type',

@@ -27,14 +27,22 @@ async function lockNc(id: number, version: number, t: Transaction) {
   const { lot, spec } = await lockLot(found.lotId, t)
   const nc = (await Nonconformance.findByPk(id, { lock: t.LOCK.UPDATE, transaction: t }))!
   if (nc.version !== version) {
-    throw conflict('version_conflict', `${nc.number} was changed meanwhile: look at its current state and try again`, {
-      current: await ncRow(id, t),
-    })
+    throw conflict(
+      'version_conflict',
+      `${nc.number} was changed meanwhile: look at its current state and try again`,
+      {
+        current: await ncRow(id, t),
+      },
+    )
   }
   if (nc.status === 'closed') {
-    throw conflict('nc_closed', `${nc.number} is closed: open a new nonconformance if something else is found`, {
-      current: await ncRow(id, t),
-    })
+    throw conflict(
+      'nc_closed',
+      `${nc.number} is closed: open a new nonconformance if something else is found`,
+      {
+        current: await ncRow(id, t),
+      },
+    )
   }
   return { lot, spec, nc }
 }
@@ -54,15 +62,23 @@ function assertDispositionFits(lot: Lot, disposition: Disposition, ncNumber: str
     )
   }
   if (lot.status === 'rejected' && RETEST.includes(disposition)) {
-    throw conflict('lot_rejected', `Lot ${lot.lotNumber} has been rejected: its parts are not retested; scrap them or accept them on concession`, {
-      lotNumber: lot.lotNumber,
-      status: lot.status,
-    })
+    throw conflict(
+      'lot_rejected',
+      `Lot ${lot.lotNumber} has been rejected: its parts are not retested; scrap them or accept them on concession`,
+      {
+        lotNumber: lot.lotNumber,
+        status: lot.status,
+      },
+    )
   }
 }
 
 /** POST /api/nonconformances/:id/disposition. May be changed until the record is closed. */
-export async function dispositionNc(actor: AuditActor, id: number, body: DispositionBody): Promise<NonconformanceRow> {
+export async function dispositionNc(
+  actor: AuditActor,
+  id: number,
+  body: DispositionBody,
+): Promise<NonconformanceRow> {
   return inTransaction(async (t) => {
     const { lot, spec, nc } = await lockNc(id, body.version, t)
     assertDispositionFits(lot, body.disposition, nc.number)
@@ -96,7 +112,13 @@ export async function dispositionNc(actor: AuditActor, id: number, body: Disposi
 
 /** Parts of a repair or recoat whose retest round does not pass yet: they keep the record open. */
 async function retestsNotPassing(ncId: number, t: Transaction) {
-  return sequelize.query<{ id: number; part_number: string; round: number; verdict_status: string | null; reason: string | null }>(
+  return sequelize.query<{
+    id: number
+    part_number: string
+    round: number
+    verdict_status: string | null
+    reason: string | null
+  }>(
     `SELECT p.id, p.part_number, p.round, p.verdict_status, p.verdict->>'reason' AS reason
        FROM nonconformance_parts np JOIN parts p ON p.id = np.part_id
       WHERE np.nonconformance_id = $1
@@ -107,28 +129,54 @@ async function retestsNotPassing(ncId: number, t: Transaction) {
 }
 
 /** POST /api/nonconformances/:id/close: the disposition was carried out, and this is how it was verified. */
-export async function closeNc(actor: AuditActor, id: number, body: CloseBody): Promise<NonconformanceRow> {
+export async function closeNc(
+  actor: AuditActor,
+  id: number,
+  body: CloseBody,
+): Promise<NonconformanceRow> {
   return inTransaction(async (t) => {
     const { lot, nc } = await lockNc(id, body.version, t)
     if (nc.status !== 'dispositioned' || !nc.disposition) {
-      throw conflict('nc_not_dispositioned', `${nc.number} has no disposition yet: decide what happens to the parts first`, {
-        current: await ncRow(id, t),
-      })
+      throw conflict(
+        'nc_not_dispositioned',
+        `${nc.number} has no disposition yet: decide what happens to the parts first`,
+        {
+          current: await ncRow(id, t),
+        },
+      )
     }
     assertDispositionFits(lot, nc.disposition, nc.number)
     if (RETEST.includes(nc.disposition)) {
       const open = await retestsNotPassing(id, t)
       if (open.length) {
-        const list = open.map((p) => `${p.part_number} (round ${p.round}: ${p.verdict_status ?? 'no verdict'})`).join(', ')
-        throw conflict('retest_not_passed', `${nc.number} stays open until the retest passes: ${list}`, {
-          parts: open.map((p) => ({ partId: p.id, partNumber: p.part_number, round: p.round, status: p.verdict_status, reason: p.reason })),
-        })
+        const list = open
+          .map((p) => `${p.part_number} (round ${p.round}: ${p.verdict_status ?? 'no verdict'})`)
+          .join(', ')
+        throw conflict(
+          'retest_not_passed',
+          `${nc.number} stays open until the retest passes: ${list}`,
+          {
+            parts: open.map((p) => ({
+              partId: p.id,
+              partNumber: p.part_number,
+              round: p.round,
+              status: p.verdict_status,
+              reason: p.reason,
+            })),
+          },
+        )
       }
     }
     const before = await ncRow(id, t)
     if (nc.disposition === 'scrap') await scrapParts(actor, lot, nc, t)
     await nc.update(
-      { status: 'closed', verification: body.verification, closedBy: actor.id, closedAt: new Date(), version: nc.version + 1 },
+      {
+        status: 'closed',
+        verification: body.verification,
+        closedBy: actor.id,
+        closedAt: new Date(),
+        version: nc.version + 1,
+      },
       { transaction: t },
     )
     const after = await ncRow(id, t)

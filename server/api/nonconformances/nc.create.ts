@@ -39,7 +39,12 @@ async function insertNc(actor: AuditActor, nc: NewNc, t: Transaction): Promise<N
     { transaction: t },
   )
   await NonconformancePart.bulkCreate(
-    nc.parts.map((p) => ({ nonconformanceId: record.id, partId: p.id, roundFound: p.round, retestRound: null })),
+    nc.parts.map((p) => ({
+      nonconformanceId: record.id,
+      partId: p.id,
+      roundFound: p.round,
+      retestRound: null,
+    })),
     { transaction: t },
   )
   const row = await ncRow(record.id, t)
@@ -65,7 +70,10 @@ export async function openAutoNonconformances(
   spec: SpecContent,
   t: Transaction,
 ): Promise<NonconformanceRow[]> {
-  const parts = partsUnderReview(spec, await Part.findAll({ where: { lotId: lot.id }, order: [['id', 'ASC']], transaction: t }))
+  const parts = partsUnderReview(
+    spec,
+    await Part.findAll({ where: { lotId: lot.id }, order: [['id', 'ASC']], transaction: t }),
+  )
   const covered = await sequelize.query<{ part_id: number; criterion: string }>(
     `SELECT np.part_id, n.criterion
        FROM nonconformance_parts np JOIN nonconformances n ON n.id = np.nonconformance_id
@@ -108,14 +116,24 @@ export async function openAutoNonconformances(
  * POST /api/nonconformances: opened by hand for what the rules cannot see (damage,
  * contamination, ...), in any lot state — a released lot can be found damaged on the dock.
  */
-export async function createManualNc(actor: AuditActor, body: CreateNcBody): Promise<NonconformanceRow> {
+export async function createManualNc(
+  actor: AuditActor,
+  body: CreateNcBody,
+): Promise<NonconformanceRow> {
   return inTransaction(async (t) => {
     const lot = await Lot.findByPk(body.lotId, { lock: t.LOCK.SHARE, transaction: t })
-    if (!lot) throw new HttpError(400, 'invalid_reference', `Lot #${body.lotId} does not exist`, [{ field: 'body.lotId', message: 'No such lot' }])
+    if (!lot)
+      throw new HttpError(400, 'invalid_reference', `Lot #${body.lotId} does not exist`, [
+        { field: 'body.lotId', message: 'No such lot' },
+      ])
     const defectType = await DefectType.findByPk(body.defectTypeId, { transaction: t })
     if (!defectType || !defectType.active) {
-      const message = defectType ? `Defect type "${defectType.label}" is retired: choose an active one` : `Defect type #${body.defectTypeId} does not exist`
-      throw new HttpError(400, 'invalid_reference', message, [{ field: 'body.defectTypeId', message }])
+      const message = defectType
+        ? `Defect type "${defectType.label}" is retired: choose an active one`
+        : `Defect type #${body.defectTypeId} does not exist`
+      throw new HttpError(400, 'invalid_reference', message, [
+        { field: 'body.defectTypeId', message },
+      ])
     }
     const ids = [...new Set(body.partIds)]
     const parts = await Part.findAll({ where: { id: ids }, transaction: t })

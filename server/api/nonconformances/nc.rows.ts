@@ -50,7 +50,9 @@ const NC_SELECT = `
     LEFT JOIN users cu ON cu.id = n.closed_by`
 
 function stamp(byId: number | null, byName: string | null, at: Date | null): Stamp | null {
-  return byId === null || at === null ? null : { byId, byName: byName ?? '', at: new Date(at).toISOString() }
+  return byId === null || at === null
+    ? null
+    : { byId, byName: byName ?? '', at: new Date(at).toISOString() }
 }
 
 function toNcRow(r: NcSqlRow): NonconformanceRow {
@@ -78,12 +80,19 @@ function toNcRow(r: NcSqlRow): NonconformanceRow {
 }
 
 /** Nonconformance rows by a WHERE on `n` (and `l`), oldest first. */
-export async function ncRows(where: string, bind: unknown[], t?: Transaction): Promise<NonconformanceRow[]> {
-  const rows = await sequelize.query<NcSqlRow>(`${NC_SELECT} ${where ? `WHERE ${where}` : ''} ORDER BY n.id`, {
-    bind,
-    type: QueryTypes.SELECT,
-    transaction: t,
-  })
+export async function ncRows(
+  where: string,
+  bind: unknown[],
+  t?: Transaction,
+): Promise<NonconformanceRow[]> {
+  const rows = await sequelize.query<NcSqlRow>(
+    `${NC_SELECT} ${where ? `WHERE ${where}` : ''} ORDER BY n.id`,
+    {
+      bind,
+      type: QueryTypes.SELECT,
+      transaction: t,
+    },
+  )
   return rows.map(toNcRow)
 }
 
@@ -115,7 +124,11 @@ export async function ncPhotoRows(ncId: number, t?: Transaction): Promise<PhotoR
     caption: r.caption,
     width: r.width,
     height: r.height,
-    uploaded: { byId: r.uploaded_by, byName: r.uploader_name, at: new Date(r.uploaded_at).toISOString() },
+    uploaded: {
+      byId: r.uploaded_by,
+      byName: r.uploader_name,
+      at: new Date(r.uploaded_at).toISOString(),
+    },
   }))
 }
 
@@ -125,7 +138,10 @@ export async function ncDetail(id: number): Promise<NonconformanceRow & { photos
 }
 
 /** GET /api/nonconformances?status&lotId, oldest first. */
-export function listNcs(query: { status?: NcStatus; lotId?: number }): Promise<NonconformanceRow[]> {
+export function listNcs(query: {
+  status?: NcStatus
+  lotId?: number
+}): Promise<NonconformanceRow[]> {
   const where: string[] = []
   const bind: unknown[] = []
   if (query.status) where.push(`n.status = $${bind.push(query.status)}`)

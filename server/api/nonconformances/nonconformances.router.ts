@@ -1,7 +1,12 @@
 import { z } from 'zod'
 import { idParams, secureRouter } from '../secureRouter'
 import { FLOOR, QA, STAFF } from '../../../shared/api/roles'
-import { NC_STATUSES, closeNcSchema, createNcSchema, dispositionSchema } from '../../../shared/api/review'
+import {
+  NC_STATUSES,
+  closeNcSchema,
+  createNcSchema,
+  dispositionSchema,
+} from '../../../shared/api/review'
 import { createManualNc } from './nc.create'
 import { ncDetail, listNcs } from './nc.rows'
 import { uploadNcPhoto } from './nc.photos'
@@ -19,12 +24,18 @@ nonconformancesRouter.get('/', { roles: STAFF, query: listQuery }, ({ query }) =
 
 const FLOOR_AND_QA = [...new Set([...FLOOR, ...QA])]
 
-nonconformancesRouter.post('/', { roles: FLOOR_AND_QA, body: createNcSchema }, async ({ user, body, res }) => {
-  res.status(201)
-  return createManualNc(user, body)
-})
+nonconformancesRouter.post(
+  '/',
+  { roles: FLOOR_AND_QA, body: createNcSchema },
+  async ({ user, body, res }) => {
+    res.status(201)
+    return createManualNc(user, body)
+  },
+)
 
-nonconformancesRouter.get('/:id', { roles: STAFF, params: idParams }, ({ params }) => ncDetail(params.id))
+nonconformancesRouter.get('/:id', { roles: STAFF, params: idParams }, ({ params }) =>
+  ncDetail(params.id),
+)
 
 nonconformancesRouter.post(
   '/:id/disposition',
@@ -32,12 +43,18 @@ nonconformancesRouter.post(
   ({ user, params, body }) => dispositionNc(user, params.id, body),
 )
 
-nonconformancesRouter.post('/:id/close', { roles: QA, params: idParams, body: closeNcSchema }, ({ user, params, body }) =>
-  closeNc(user, params.id, body),
+nonconformancesRouter.post(
+  '/:id/close',
+  { roles: QA, params: idParams, body: closeNcSchema },
+  ({ user, params, body }) => closeNc(user, params.id, body),
 )
 
-nonconformancesRouter.post('/:id/photos', { roles: FLOOR_AND_QA, params: idParams }, async ({ req, res, params, user }) => {
-  const { photo, created } = await uploadNcPhoto(user, params.id, req, res)
-  res.status(created ? 201 : 200)
-  return photo
-})
+nonconformancesRouter.post(
+  '/:id/photos',
+  { roles: FLOOR_AND_QA, params: idParams },
+  async ({ req, res, params, user }) => {
+    const { photo, created } = await uploadNcPhoto(user, params.id, req, res)
+    res.status(created ? 201 : 200)
+    return photo
+  },
+)

@@ -35,17 +35,26 @@ export async function startRetestRound(
   )
   for (const p of parts) {
     const round = p.round + 1
-    await sequelize.query('UPDATE parts SET round = $2, version = version + 1, updated_at = now() WHERE id = $1', {
-      bind: [p.id, round],
-      transaction: t,
-    })
+    await sequelize.query(
+      'UPDATE parts SET round = $2, version = version + 1, updated_at = now() WHERE id = $1',
+      {
+        bind: [p.id, round],
+        transaction: t,
+      },
+    )
     await sequelize.query(
       'UPDATE nonconformance_parts SET retest_round = $3 WHERE nonconformance_id = $1 AND part_id = $2',
       { bind: [nc.id, p.id, round], transaction: t },
     )
     const verdict = await recomputePartVerdict(
       spec,
-      { id: p.id, round, partNumber: p.part_number, heatNumber: p.heat_number, coatedAreaM2: p.coated_area_m2 },
+      {
+        id: p.id,
+        round,
+        partNumber: p.part_number,
+        heatNumber: p.heat_number,
+        coatedAreaM2: p.coated_area_m2,
+      },
       t,
     )
     await recordAudit(t, actor, {

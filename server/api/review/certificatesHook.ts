@@ -6,7 +6,10 @@ import { sequelize } from '../../db'
  * certificates table belongs to the certificate feature and may not exist yet, so this asks
  * PostgreSQL first (to_regclass) and does nothing without it. Answers how many were marked.
  */
-export async function markLotCertificatesForReissue(lotId: number, t: Transaction): Promise<number> {
+export async function markLotCertificatesForReissue(
+  lotId: number,
+  t: Transaction,
+): Promise<number> {
   const [exists] = await sequelize.query<{ present: boolean }>(
     "SELECT to_regclass('public.certificates') IS NOT NULL AS present",
     { type: QueryTypes.SELECT, transaction: t },

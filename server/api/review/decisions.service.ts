@@ -12,7 +12,11 @@ import { releaseBlockers } from './releaseBlockers'
 
 type DecisionBody = z.infer<typeof decisionSchema>
 
-const RESULT: Record<Decision, LotStatus> = { release: 'released', hold: 'on-hold', reject: 'rejected' }
+const RESULT: Record<Decision, LotStatus> = {
+  release: 'released',
+  hold: 'on-hold',
+  reject: 'rejected',
+}
 
 /** The review state machine: which decision each lot status allows. Released and rejected are final (a released lot can be reopened). */
 export const ALLOWED_DECISIONS: Record<LotStatus, readonly Decision[]> = {
@@ -48,7 +52,11 @@ export interface DecisionResult {
  * supervisors deciding at once exactly one decision stands; the other gets 409 with the lot as it
  * now is. Release also needs no blockers, and a releaser independent of the inspection.
  */
-export async function decideLot(actor: AuditActor, lotId: number, body: DecisionBody): Promise<DecisionResult> {
+export async function decideLot(
+  actor: AuditActor,
+  lotId: number,
+  body: DecisionBody,
+): Promise<DecisionResult> {
   return inTransaction(async (t) => {
     const { lot, spec } = await lockLot(lotId, t, body.version)
     const allowed = ALLOWED_DECISIONS[lot.status as LotStatus]
@@ -101,7 +109,13 @@ export async function decideLot(actor: AuditActor, lotId: number, body: Decision
       entityId: lotId,
       lotId,
       before,
-      after: { status: lot.status, version: lot.version, decisionId: record.id, reason: body.reason, independenceWaived },
+      after: {
+        status: lot.status,
+        version: lot.version,
+        decisionId: record.id,
+        reason: body.reason,
+        independenceWaived,
+      },
       note: `Lot ${lot.lotNumber} ${RESULT[body.decision]}${body.reason ? `: ${body.reason}` : ''}${independenceWaived ? ' (released by a recorder of the lot: independence waived by the plant setting)' : ''}`,
     })
     return { lot: await currentLotRow(lotId, t), decision: decision! }
@@ -129,7 +143,11 @@ async function decisionRowsOf(lotId: number, id?: number, t?: Transaction): Prom
     lotId: r.lot_id,
     decision: r.decision,
     reason: r.reason,
-    decided: { byId: r.decided_by, byName: r.decider_name, at: new Date(r.decided_at).toISOString() },
+    decided: {
+      byId: r.decided_by,
+      byName: r.decider_name,
+      at: new Date(r.decided_at).toISOString(),
+    },
     independenceWaived: r.independence_waived,
   }))
 }

@@ -59,6 +59,9 @@ export async function recorderIdsOf(lotId: number, t?: Transaction): Promise<num
 }
 
 /** Parts the lot verdict counts (the lots service's rule): sampled parts when the spec samples, else all. */
-export function partsUnderReview<P extends { sampled: boolean }>(spec: SpecContent, parts: P[]): P[] {
+export function partsUnderReview<P extends { sampled: boolean }>(
+  spec: SpecContent,
+  parts: P[],
+): P[] {
   return spec.sampling.mode === 'sample' ? parts.filter((p) => p.sampled) : parts
 }

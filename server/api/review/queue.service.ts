@@ -30,7 +30,10 @@ export async function reviewQueue(): Promise<QueueEntry[]> {
     { type: QueryTypes.SELECT },
   )
   if (rows.length === 0) return []
-  const parts = await Part.findAll({ where: { lotId: rows.map((r) => r.id) }, order: [['id', 'ASC']] })
+  const parts = await Part.findAll({
+    where: { lotId: rows.map((r) => r.id) },
+    order: [['id', 'ASC']],
+  })
   return Promise.all(
     rows.map(async (r) => {
       const spec = await specContentFor(r.spec_id, r.spec_version)
@@ -39,7 +42,10 @@ export async function reviewQueue(): Promise<QueueEntry[]> {
         submittedAt: r.submitted_at ? new Date(r.submitted_at).toISOString() : null,
         openNonconformances: r.open_ncs,
         recorderIds: r.recorder_ids ?? [],
-        lotVerdict: lotVerdictOf(spec, parts.filter((p) => p.lotId === r.id)),
+        lotVerdict: lotVerdictOf(
+          spec,
+          parts.filter((p) => p.lotId === r.id),
+        ),
       }
     }),
   )

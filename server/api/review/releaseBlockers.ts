@@ -29,16 +29,34 @@ export type ReleaseBlocker =
  * allows it through its retest: the part's current round then passes. Any nonconformance of the
  * lot not yet closed — open or merely dispositioned — blocks release.
  */
-export async function releaseBlockers(lot: Lot, spec: SpecContent, t: Transaction): Promise<ReleaseBlocker[]> {
+export async function releaseBlockers(
+  lot: Lot,
+  spec: SpecContent,
+  t: Transaction,
+): Promise<ReleaseBlocker[]> {
   const blockers: ReleaseBlocker[] = []
   const ncs = await sequelize.query<{ id: number; number: string; status: NcStatus }>(
     "SELECT id, number, status FROM nonconformances WHERE lot_id = $1 AND status <> 'closed' ORDER BY id",
     { bind: [lot.id], type: QueryTypes.SELECT, transaction: t },
   )
-  for (const n of ncs) blockers.push({ kind: 'nonconformance', nonconformanceId: n.id, number: n.number, status: n.status })
+  for (const n of ncs)
+    blockers.push({
+      kind: 'nonconformance',
+      nonconformanceId: n.id,
+      number: n.number,
+      status: n.status,
+    })
 
-  const all = await Part.findAll({ where: { lotId: lot.id }, order: [['id', 'ASC']], transaction: t })
-  const extra = await sequelize.query<{ id: number; scrapped: boolean; concessions: string[] | null }>(
+  const all = await Part.findAll({
+    where: { lotId: lot.id },
+    order: [['id', 'ASC']],
+    transaction: t,
+  })
+  const extra = await sequelize.query<{
+    id: number
+    scrapped: boolean
+    concessions: string[] | null
+  }>(
     `SELECT p.id, p.scrapped_by_nc IS NOT NULL AS scrapped,
             (SELECT array_agg(n.criterion) FROM nonconformance_parts np
                JOIN nonconformances n ON n.id = np.nonconformance_id
@@ -53,9 +71,19 @@ export async function releaseBlockers(lot: Lot, spec: SpecContent, t: Transactio
     const info = byId.get(part.id)
     if (info?.scrapped) continue
     const status = part.verdictStatus ?? 'incomplete'
-    const base = { kind: 'part' as const, partId: part.id, partNumber: part.partNumber, round: part.round }
+    const base = {
+      kind: 'part' as const,
+      partId: part.id,
+      partNumber: part.partNumber,
+      round: part.round,
+    }
     if (status === 'incomplete') {
-      blockers.push({ ...base, criterion: null, status, reason: part.verdict?.reason ?? 'No verdict yet' })
+      blockers.push({
+        ...base,
+        criterion: null,
+        status,
+        reason: part.verdict?.reason ?? 'No verdict yet',
+      })
     } else if (status === 'fail') {
       const accepted = new Set(info?.concessions ?? [])
       for (const c of part.verdict?.criteria ?? []) {
@@ -67,7 +95,10 @@ export async function releaseBlockers(lot: Lot, spec: SpecContent, t: Transactio
   }
   // Too few parts inspected for the spec's sample (or none at all).
   const verdict = lotVerdictOf(spec, counted)
-  if (verdict.status === 'incomplete' && !blockers.some((b) => b.kind === 'part' && b.status === 'incomplete')) {
+  if (
+    verdict.status === 'incomplete' &&
+    !blockers.some((b) => b.kind === 'part' && b.status === 'incomplete')
+  ) {
     blockers.push({ kind: 'lot', reason: verdict.reason })
   }
   return blockers

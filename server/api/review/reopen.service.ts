@@ -22,7 +22,11 @@ export interface ReopenResult {
  * POST /api/lots/:id/reopen: only with a reason, always audited. The lot is 'open' again, so
  * its records can be corrected; any certificate issued for it is marked as needing reissue.
  */
-export async function reopenLot(actor: AuditActor, lotId: number, body: ReopenBody): Promise<ReopenResult> {
+export async function reopenLot(
+  actor: AuditActor,
+  lotId: number,
+  body: ReopenBody,
+): Promise<ReopenResult> {
   return inTransaction(async (t) => {
     const { lot } = await lockLot(lotId, t, body.version)
     if (!REOPENABLE.includes(lot.status)) {
@@ -37,10 +41,13 @@ export async function reopenLot(actor: AuditActor, lotId: number, body: ReopenBo
       })
     }
     const before = { status: lot.status, version: lot.version }
-    await sequelize.query('INSERT INTO lot_reopenings (lot_id, reason, from_status, reopened_by) VALUES ($1, $2, $3, $4)', {
-      bind: [lotId, body.reason, lot.status, actor.id],
-      transaction: t,
-    })
+    await sequelize.query(
+      'INSERT INTO lot_reopenings (lot_id, reason, from_status, reopened_by) VALUES ($1, $2, $3, $4)',
+      {
+        bind: [lotId, body.reason, lot.status, actor.id],
+        transaction: t,
+      },
+    )
     await setLotStatus(lot, 'open', t)
     const certificatesMarked = await markLotCertificatesForReissue(lotId, t)
     await recordAudit(t, actor, {

@@ -14,22 +14,34 @@ export const lotReviewRouter = secureRouter('/api/lots')
 /** The version is optional here: the tablet submits what it has, the lot's state is checked under lock. */
 const submitSchema = z.object({ version: z.number().int().min(1).optional() })
 
-lotReviewRouter.post('/:id/submit', { roles: FLOOR, params: idParams, body: submitSchema }, ({ user, params, body }) =>
-  submitLot(user, params.id, body.version),
+lotReviewRouter.post(
+  '/:id/submit',
+  { roles: FLOOR, params: idParams, body: submitSchema },
+  ({ user, params, body }) => submitLot(user, params.id, body.version),
 )
 
-lotReviewRouter.post('/:id/decisions', { roles: QA, params: idParams, body: decisionSchema }, async ({ user, params, body, res }) => {
-  res.status(201)
-  return decideLot(user, params.id, body)
-})
-
-lotReviewRouter.get('/:id/decisions', { roles: STAFF, params: idParams }, ({ params }) => listDecisions(params.id))
-
-lotReviewRouter.post('/:id/reopen', { roles: QA, params: idParams, body: reopenSchema }, ({ user, params, body }) =>
-  reopenLot(user, params.id, body),
+lotReviewRouter.post(
+  '/:id/decisions',
+  { roles: QA, params: idParams, body: decisionSchema },
+  async ({ user, params, body, res }) => {
+    res.status(201)
+    return decideLot(user, params.id, body)
+  },
 )
 
-lotReviewRouter.get('/:id/history', { roles: STAFF, params: idParams }, ({ params }) => lotHistory(params.id))
+lotReviewRouter.get('/:id/decisions', { roles: STAFF, params: idParams }, ({ params }) =>
+  listDecisions(params.id),
+)
+
+lotReviewRouter.post(
+  '/:id/reopen',
+  { roles: QA, params: idParams, body: reopenSchema },
+  ({ user, params, body }) => reopenLot(user, params.id, body),
+)
+
+lotReviewRouter.get('/:id/history', { roles: STAFF, params: idParams }, ({ params }) =>
+  lotHistory(params.id),
+)
 
 /** The supervisor's queue. */
 export const reviewRouter = secureRouter('/api/review')

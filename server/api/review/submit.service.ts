@@ -20,7 +20,11 @@ export interface SubmitResult {
  * a verdict that is not incomplete (scrapped parts excepted); the lot goes to 'awaiting-review'
  * and each failing criterion of each part gets a nonconformance.
  */
-export async function submitLot(actor: AuditActor, lotId: number, version?: number): Promise<SubmitResult> {
+export async function submitLot(
+  actor: AuditActor,
+  lotId: number,
+  version?: number,
+): Promise<SubmitResult> {
   return inTransaction(async (t) => {
     const { lot, spec } = await lockLot(lotId, t, version)
     if (lot.status !== 'open') {
@@ -30,23 +34,44 @@ export async function submitLot(actor: AuditActor, lotId: number, version?: numb
           : `Lot ${lot.lotNumber} is ${lot.status}: only an open lot is submitted for review`
       throw conflict('lot_not_open', message, { current: await currentLotRow(lotId, t) })
     }
-    const scrapped = await sequelize.query<{ id: number }>('SELECT id FROM parts WHERE lot_id = $1 AND scrapped_by_nc IS NOT NULL', {
-      bind: [lotId],
-      type: QueryTypes.SELECT,
-      transaction: t,
-    })
+    const scrapped = await sequelize.query<{ id: number }>(
+      'SELECT id FROM parts WHERE lot_id = $1 AND scrapped_by_nc IS NOT NULL',
+      {
+        bind: [lotId],
+        type: QueryTypes.SELECT,
+        transaction: t,
+      },
+    )
     const scrappedIds = new Set(scrapped.map((s) => s.id))
-    const counted = partsUnderReview(spec, await Part.findAll({ where: { lotId }, order: [['id', 'ASC']], transaction: t }))
-    const unfinished = counted.filter((p) => !scrappedIds.has(p.id) && (p.verdictStatus ?? 'incomplete') === 'incomplete')
+    const counted = partsUnderReview(
+      spec,
+      await Part.findAll({ where: { lotId }, order: [['id', 'ASC']], transaction: t }),
+    )
+    const unfinished = counted.filter(
+      (p) => !scrappedIds.has(p.id) && (p.verdictStatus ?? 'incomplete') === 'incomplete',
+    )
     if (unfinished.length) {
       const names = unfinished.map((p) => p.partNumber).join(', ')
-      throw conflict('inspection_incomplete', `Lot ${lot.lotNumber} cannot be submitted yet: the inspection of ${names} is not finished`, {
-        parts: unfinished.map((p) => ({ partId: p.id, partNumber: p.partNumber, round: p.round, reason: p.verdict?.reason ?? 'No verdict yet' })),
-      })
+      throw conflict(
+        'inspection_incomplete',
+        `Lot ${lot.lotNumber} cannot be submitted yet: the inspection of ${names} is not finished`,
+        {
+          parts: unfinished.map((p) => ({
+            partId: p.id,
+            partNumber: p.partNumber,
+            round: p.round,
+            reason: p.verdict?.reason ?? 'No verdict yet',
+          })),
+        },
+      )
     }
     const verdict = lotVerdictOf(spec, counted)
     if (verdict.status === 'incomplete') {
-      throw conflict('inspection_incomplete', `Lot ${lot.lotNumber} cannot be submitted yet: ${verdict.reason}`, { parts: [] })
+      throw conflict(
+        'inspection_incomplete',
+        `Lot ${lot.lotNumber} cannot be submitted yet: ${verdict.reason}`,
+        { parts: [] },
+      )
     }
     const before = { status: lot.status, version: lot.version }
     await sequelize.query('INSERT INTO lot_submissions (lot_id, submitted_by) VALUES ($1, $2)', {

@@ -1,8 +1,17 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize'
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+} from 'sequelize'
 import { sequelize } from '../index'
 
 /** A cause of nonconformance from the list the admin keeps ("thin film", "holiday", ...). */
-export class DefectType extends Model<InferAttributes<DefectType>, InferCreationAttributes<DefectType>> {
+export class DefectType extends Model<
+  InferAttributes<DefectType>,
+  InferCreationAttributes<DefectType>
+> {
   declare id: CreationOptional<number>
   declare code: string
   declare label: string

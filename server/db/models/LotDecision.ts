@@ -1,10 +1,19 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize'
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+} from 'sequelize'
 import { sequelize } from '../index'
 import type { Decision } from '../../../shared/api/review'
 import type { LotStatus } from '../../../shared/api/lots'
 
 /** Release, hold or reject of a lot. Append-only: the database refuses UPDATE and DELETE. */
-export class LotDecision extends Model<InferAttributes<LotDecision>, InferCreationAttributes<LotDecision>> {
+export class LotDecision extends Model<
+  InferAttributes<LotDecision>,
+  InferCreationAttributes<LotDecision>
+> {
   declare id: CreationOptional<number>
   declare lotId: number
   declare decision: Decision

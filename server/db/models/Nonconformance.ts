@@ -1,10 +1,19 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize'
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+} from 'sequelize'
 import { sequelize } from '../index'
 import type { Disposition, NcStatus } from '../../../shared/api/review'
 import type { CriterionName } from '../../../shared/rules/verdict'
 
 /** A nonconformance record: what was wrong, with which parts, what was decided and how it was verified. */
-export class Nonconformance extends Model<InferAttributes<Nonconformance>, InferCreationAttributes<Nonconformance>> {
+export class Nonconformance extends Model<
+  InferAttributes<Nonconformance>,
+  InferCreationAttributes<Nonconformance>
+> {
   declare id: CreationOptional<number>
   declare number: string
   declare lotId: number

@@ -1,12 +1,17 @@
 import { describe, it, expect, beforeAll } from 'vitest'
 import request from 'supertest'
-import sharp from 'sharp'
 import { createApp } from '../../../server/app'
 import { sequelize } from '../../../server/db'
 import { AuditEvent } from '../../../server/db/models'
 import { auditFor } from '../setup/setupFixtures'
-import { GOOD_SPOTS_UM, THIN_SPOTS_UM, decide, lotVersion, reviewWorld, submittedLot, type ReviewWorld } from './reviewSupport'
-import { spotReadings, uuid } from '../floor/floorSupport'
+import {
+  GOOD_SPOTS_UM,
+  THIN_SPOTS_UM,
+  decide,
+  reviewWorld,
+  submittedLot,
+  type ReviewWorld,
+} from './reviewSupport'
 
 const app = createApp()
 let w: ReviewWorld
@@ -20,9 +25,15 @@ describe('the audit table cannot be rewritten', () => {
     const lot = await submittedLot(app, w, [GOOD_SPOTS_UM])
     const count = await AuditEvent.count({ where: { lotId: lot.id } })
     expect(count).toBeGreaterThan(0)
-    await expect(sequelize.query(`UPDATE audit_events SET note = 'edited' WHERE lot_id = ${lot.id}`)).rejects.toThrow(/append-only: UPDATE refused/)
-    await expect(sequelize.query(`DELETE FROM audit_events WHERE lot_id = ${lot.id}`)).rejects.toThrow(/append-only: DELETE refused/)
-    await expect(sequelize.query('TRUNCATE audit_events CASCADE')).rejects.toThrow(/append-only: TRUNCATE refused/)
+    await expect(
+      sequelize.query(`UPDATE audit_events SET note = 'edited' WHERE lot_id = ${lot.id}`),
+    ).rejects.toThrow(/append-only: UPDATE refused/)
+    await expect(
+      sequelize.query(`DELETE FROM audit_events WHERE lot_id = ${lot.id}`),
+    ).rejects.toThrow(/append-only: DELETE refused/)
+    await expect(sequelize.query('TRUNCATE audit_events CASCADE')).rejects.toThrow(
+      /append-only: TRUNCATE refused/,
+    )
     expect(await AuditEvent.count({ where: { lotId: lot.id } })).toBe(count)
     expect(await AuditEvent.count({ where: { lotId: lot.id, note: 'edited' } })).toBe(0)
   })
@@ -33,13 +44,20 @@ describe('each kind of change writes its before and after', () => {
     const lot = await submittedLot(app, w, [GOOD_SPOTS_UM])
     await decide(app, w, w.supervisor, lot.id, 'hold', 'Waiting for the cure chart')
     await decide(app, w, w.supervisor2, lot.id, 'release')
-    const events = (await auditFor('lot', lot.id)).filter((e) => ['lot.submit', 'lot.hold', 'lot.release'].includes(e.action))
+    const events = (await auditFor('lot', lot.id)).filter((e) =>
+      ['lot.submit', 'lot.hold', 'lot.release'].includes(e.action),
+    )
     expect(events.map((e) => e.action)).toEqual(['lot.submit', 'lot.hold', 'lot.release'])
     const [sub, hold, rel] = events as [AuditEvent, AuditEvent, AuditEvent]
     expect(sub.before).toEqual({ status: 'open', version: 1 })
     expect(sub.after).toMatchObject({ status: 'awaiting-review', version: 2 })
     expect(hold.before).toEqual({ status: 'awaiting-review', version: 2 })
-    expect(hold.after).toMatchObject({ status: 'on-hold', version: 3, reason: 'Waiting for the cure chart', independenceWaived: false })
+    expect(hold.after).toMatchObject({
+      status: 'on-hold',
+      version: 3,
+      reason: 'Waiting for the cure chart',
+      independenceWaived: false,
+    })
     expect(hold.actorId).toBe(w.supervisor.user.id)
     expect(rel.before).toEqual({ status: 'on-hold', version: 3 })
     expect(rel.after).toMatchObject({ status: 'released', version: 4 })
@@ -53,20 +71,49 @@ describe('each kind of change writes its before and after', () => {
     const disp = await request(app)
       .post(`/api/nonconformances/${nc.id}/disposition`)
       .set('Authorization', w.supervisor.auth)
-      .send({ disposition: 'use-as-is', concessionRef: 'CON-77', note: 'Buyer accepts 10 mils on this flange', version: nc.version })
+      .send({
+        disposition: 'use-as-is',
+        concessionRef: 'CON-77',
+        note: 'Buyer accepts 10 mils on this flange',
+        version: nc.version,
+      })
     await request(app)
       .post(`/api/nonconformances/${nc.id}/close`)
       .set('Authorization', w.supervisor.auth)
       .send({ verification: 'Concession CON-77 on file', version: disp.body.version })
     const events = await auditFor('nonconformance', nc.id)
-    expect(events.map((e) => e.action)).toEqual(['nonconformance.open', 'nonconformance.disposition', 'nonconformance.close'])
+    expect(events.map((e) => e.action)).toEqual([
+      'nonconformance.open',
+      'nonconformance.disposition',
+      'nonconformance.close',
+    ])
     const [open, dispositioned, closed] = events as [AuditEvent, AuditEvent, AuditEvent]
     expect(open.before).toBeNull()
-    expect(open.after).toMatchObject({ number: nc.number, status: 'open', criterion: 'thickness', source: 'auto' })
-    expect(dispositioned.before).toMatchObject({ status: 'open', disposition: null, concessionRef: null })
-    expect(dispositioned.after).toMatchObject({ status: 'dispositioned', disposition: 'use-as-is', concessionRef: 'CON-77' })
-    expect(closed.before).toMatchObject({ status: 'dispositioned', verification: null, closed: null })
-    expect(closed.after).toMatchObject({ status: 'closed', verification: 'Concession CON-77 on file' })
+    expect(open.after).toMatchObject({
+      number: nc.number,
+      status: 'open',
+      criterion: 'thickness',
+      source: 'auto',
+    })
+    expect(dispositioned.before).toMatchObject({
+      status: 'open',
+      disposition: null,
+      concessionRef: null,
+    })
+    expect(dispositioned.after).toMatchObject({
+      status: 'dispositioned',
+      disposition: 'use-as-is',
+      concessionRef: 'CON-77',
+    })
+    expect(closed.before).toMatchObject({
+      status: 'dispositioned',
+      verification: null,
+      closed: null,
+    })
+    expect(closed.after).toMatchObject({
+      status: 'closed',
+      verification: 'Concession CON-77 on file',
+    })
     expect(events.every((e) => e.lotId === lot.id)).toBe(true)
   })
 
@@ -77,7 +124,9 @@ describe('each kind of change writes its before and after', () => {
       .post(`/api/nonconformances/${nc.id}/disposition`)
       .set('Authorization', w.supervisor.auth)
       .send({ disposition: 'repair-retest', version: nc.version })
-    const part = (await auditFor('part', lot.partIds[0]!)).find((e) => e.action === 'part.retest-round')!
+    const part = (await auditFor('part', lot.partIds[0]!)).find(
+      (e) => e.action === 'part.retest-round',
+    )!
     expect(part.before).toEqual({ round: 1, verdictStatus: 'fail' })
     expect(part.after).toEqual({ round: 2, verdictStatus: 'incomplete' })
     const back = (await auditFor('lot', lot.id)).find((e) => e.action === 'lot.open-for-retest')!
@@ -86,105 +135,29 @@ describe('each kind of change writes its before and after', () => {
   })
 
   it('defect types: create and change', async () => {
-    const created = await request(app).post('/api/defect-types').set('Authorization', w.admin.auth).send({ code: 'orange-peel', label: 'Orange peel' })
+    const created = await request(app)
+      .post('/api/defect-types')
+      .set('Authorization', w.admin.auth)
+      .send({ code: 'orange-peel', label: 'Orange peel' })
     expect(created.status).toBe(201)
     const patched = await request(app)
       .patch(`/api/defect-types/${created.body.id}`)
       .set('Authorization', w.admin.auth)
       .send({ label: 'Orange peel (surface texture)' })
-    expect(patched.body).toMatchObject({ code: 'orange-peel', label: 'Orange peel (surface texture)', active: true })
+    expect(patched.body).toMatchObject({
+      code: 'orange-peel',
+      label: 'Orange peel (surface texture)',
+      active: true,
+    })
     const events = await auditFor('defect-type', created.body.id)
     expect(events.map((e) => e.action)).toEqual(['defect-type.create', 'defect-type.update'])
     expect(events[1]!.before).toMatchObject({ label: 'Orange peel' })
     expect(events[1]!.after).toMatchObject({ label: 'Orange peel (surface texture)' })
-    const asSupervisor = await request(app).post('/api/defect-types').set('Authorization', w.supervisor.auth).send({ code: 'sags', label: 'Sags' })
+    const asSupervisor = await request(app)
+      .post('/api/defect-types')
+      .set('Authorization', w.supervisor.auth)
+      .send({ code: 'sags', label: 'Sags' })
     expect(asSupervisor.status).toBe(403)
-  })
-})
-
-describe('released means frozen, until reopened with a reason', () => {
-  it('a change to a released lot answers 409 saying how to proceed; reopen lets it change again', async () => {
-    const lot = await submittedLot(app, w, [GOOD_SPOTS_UM])
-    await decide(app, w, w.supervisor, lot.id, 'release')
-    const readings = await request(app)
-      .post(`/api/parts/${lot.partIds[0]}/readings`)
-      .set('Authorization', w.operator.auth)
-      .send({ readings: spotReadings(w.ids.gauge, [[400, 400, 400]]) })
-    expect(readings.status).toBe(409)
-    expect(readings.body.error.message).toContain('reopen the lot with a reason')
-    const patch = await request(app).patch(`/api/parts/${lot.partIds[0]}`).set('Authorization', w.operator.auth).send({ version: 1, heatNumber: 'HX-1' })
-    expect(patch.status).toBe(409)
-    expect(patch.body.error.message).toContain('reopen the lot with a reason')
-
-    const noReason = await request(app)
-      .post(`/api/lots/${lot.id}/reopen`)
-      .set('Authorization', w.supervisor.auth)
-      .send({ reason: '', version: await lotVersion(app, w, lot.id) })
-    expect(noReason.status).toBe(400)
-    expect(noReason.body.error.details[0].field).toBe('body.reason')
-    const byOperator = await request(app)
-      .post(`/api/lots/${lot.id}/reopen`)
-      .set('Authorization', w.operator.auth)
-      .send({ reason: 'Wrong heat number', version: await lotVersion(app, w, lot.id) })
-    expect(byOperator.status).toBe(403)
-
-    const reopen = await request(app)
-      .post(`/api/lots/${lot.id}/reopen`)
-      .set('Authorization', w.supervisor.auth)
-      .send({ reason: 'Heat number typed wrong on VB-1', version: await lotVersion(app, w, lot.id) })
-    expect(reopen.status).toBe(200)
-    expect(reopen.body).toMatchObject({ lot: { status: 'open' }, certificatesMarked: 0 })
-    const event = (await auditFor('lot', lot.id)).find((e) => e.action === 'lot.reopen')!
-    expect(event.before).toMatchObject({ status: 'released' })
-    expect(event.after).toMatchObject({ status: 'open', reason: 'Heat number typed wrong on VB-1' })
-    const part = await request(app).get(`/api/parts/${lot.partIds[0]}`).set('Authorization', w.operator.auth)
-    const fixed = await request(app)
-      .patch(`/api/parts/${lot.partIds[0]}`)
-      .set('Authorization', w.operator.auth)
-      .send({ version: part.body.version, heatNumber: 'HX-1' })
-    expect(fixed.status).toBe(200)
-  })
-
-  it('reopening marks the certificates of the lot for reissue when that table exists', async () => {
-    const lot = await submittedLot(app, w, [GOOD_SPOTS_UM])
-    await decide(app, w, w.supervisor, lot.id, 'release')
-    const [[found]] = (await sequelize.query("SELECT to_regclass('public.certificates') IS NOT NULL AS present")) as [{ present: boolean }[], unknown]
-    if (found!.present) {
-      // The certificate feature's own table exists: its tests cover the marking; here, a lot without certificates marks none.
-      const reopen = await request(app)
-        .post(`/api/lots/${lot.id}/reopen`)
-        .set('Authorization', w.supervisor.auth)
-        .send({ reason: 'Customer asked for the cure chart', version: await lotVersion(app, w, lot.id) })
-      expect(reopen.body.certificatesMarked).toBe(0)
-      return
-    }
-    // The certificate feature will own this table; a stand-in with the two columns the hook uses.
-    await sequelize.query('CREATE TABLE certificates (id serial PRIMARY KEY, lot_id integer NOT NULL, needs_reissue boolean NOT NULL DEFAULT false)')
-    try {
-      await sequelize.query('INSERT INTO certificates (lot_id) VALUES ($1), ($1), ($2)', { bind: [lot.id, lot.id + 1000] })
-      const reopen = await request(app)
-        .post(`/api/lots/${lot.id}/reopen`)
-        .set('Authorization', w.supervisor.auth)
-        .send({ reason: 'Customer asked for the cure chart on the certificate', version: await lotVersion(app, w, lot.id) })
-      expect(reopen.body.certificatesMarked).toBe(2)
-      const [rows] = await sequelize.query('SELECT lot_id, needs_reissue FROM certificates ORDER BY id')
-      expect(rows).toEqual([
-        { lot_id: lot.id, needs_reissue: true },
-        { lot_id: lot.id, needs_reissue: true },
-        { lot_id: lot.id + 1000, needs_reissue: false },
-      ])
-    } finally {
-      await sequelize.query('DROP TABLE certificates')
-    }
-  })
-
-  it('a stale version on reopen is a 409 with the current lot', async () => {
-    const lot = await submittedLot(app, w, [GOOD_SPOTS_UM])
-    const stale = await lotVersion(app, w, lot.id)
-    await decide(app, w, w.supervisor, lot.id, 'release')
-    const res = await request(app).post(`/api/lots/${lot.id}/reopen`).set('Authorization', w.supervisor.auth).send({ reason: 'Recheck', version: stale })
-    expect(res.status).toBe(409)
-    expect(res.body.error.details.current.status).toBe('released')
   })
 })
 
@@ -192,14 +165,21 @@ describe('reading the trail', () => {
   it("the lot's history tells the story oldest first, with who did it", async () => {
     const lot = await submittedLot(app, w, [THIN_SPOTS_UM])
     await decide(app, w, w.supervisor, lot.id, 'hold', 'Thin film')
-    const res = await request(app).get(`/api/lots/${lot.id}/history`).set('Authorization', w.operator.auth)
+    const res = await request(app)
+      .get(`/api/lots/${lot.id}/history`)
+      .set('Authorization', w.operator.auth)
     expect(res.status).toBe(200)
     const actions = res.body.map((e: { action: string }) => e.action) as string[]
     expect(actions[0]).toBe('lot.open')
     expect(actions.indexOf('lot.submit')).toBeLessThan(actions.indexOf('nonconformance.open'))
     expect(actions.at(-1)).toBe('lot.hold')
     const hold = res.body.at(-1)
-    expect(hold).toMatchObject({ actorId: w.supervisor.user.id, actorName: w.supervisor.user.name, entityType: 'lot', entityId: String(lot.id) })
+    expect(hold).toMatchObject({
+      actorId: w.supervisor.user.id,
+      actorName: w.supervisor.user.name,
+      entityType: 'lot',
+      entityId: String(lot.id),
+    })
     const ats = res.body.map((e: { at: string }) => Date.parse(e.at)) as number[]
     expect([...ats].sort((a, b) => a - b)).toEqual(ats)
   })
@@ -207,15 +187,22 @@ describe('reading the trail', () => {
   it('admins search by person, by record, by lot number and by period, paginated', async () => {
     const lot = await submittedLot(app, w, [GOOD_SPOTS_UM])
     await decide(app, w, w.supervisor2, lot.id, 'release')
-    const get = (q: string, auth = w.admin.auth) => request(app).get(`/api/audit?${q}`).set('Authorization', auth)
+    const get = (q: string, auth = w.admin.auth) =>
+      request(app).get(`/api/audit?${q}`).set('Authorization', auth)
 
     const byPerson = await get(`actorId=${w.supervisor2.user.id}`)
     expect(byPerson.status).toBe(200)
     expect(byPerson.body.length).toBeGreaterThan(0)
-    expect(byPerson.body.every((e: { actorId: number }) => e.actorId === w.supervisor2.user.id)).toBe(true)
+    expect(
+      byPerson.body.every((e: { actorId: number }) => e.actorId === w.supervisor2.user.id),
+    ).toBe(true)
 
     const byRecord = await get(`entityType=lot&entityId=${lot.id}`)
-    expect(byRecord.body.map((e: { action: string }) => e.action)).toEqual(['lot.release', 'lot.submit', 'lot.open'])
+    expect(byRecord.body.map((e: { action: string }) => e.action)).toEqual([
+      'lot.release',
+      'lot.submit',
+      'lot.open',
+    ])
 
     const byLot = await get(`lotNumber=${lot.lotNumber.toLowerCase()}&limit=2&offset=0`)
     expect(byLot.body).toHaveLength(2)
@@ -225,30 +212,26 @@ describe('reading the trail', () => {
     expect(page2.body[0].id).not.toBe(byLot.body[0].id)
 
     // The period is in calendar days of the database's clock.
-    const [[{ today }]] = (await sequelize.query('SELECT current_date::text AS today')) as [{ today: string }[], unknown]
-    expect(Number((await get(`lotNumber=${lot.lotNumber}&from=2000-01-01&to=2000-12-31`)).headers['x-total-count'])).toBe(0)
-    expect(Number((await get(`lotNumber=${lot.lotNumber}&from=${today}&to=${today}`)).headers['x-total-count'])).toBe(total)
+    const [[day]] = (await sequelize.query('SELECT current_date::text AS today')) as [
+      { today: string }[],
+      unknown,
+    ]
+    const today = day!.today
+    expect(
+      Number(
+        (await get(`lotNumber=${lot.lotNumber}&from=2000-01-01&to=2000-12-31`)).headers[
+          'x-total-count'
+        ],
+      ),
+    ).toBe(0)
+    expect(
+      Number(
+        (await get(`lotNumber=${lot.lotNumber}&from=${today}&to=${today}`)).headers[
+          'x-total-count'
+        ],
+      ),
+    ).toBe(total)
 
     expect((await get('actorId=1', w.supervisor.auth)).status).toBe(403)
-  })
-})
-
-describe('photos of a nonconformance', () => {
-  it('are stored with the nonconformance, also while the lot is in review', async () => {
-    const lot = await submittedLot(app, w, [THIN_SPOTS_UM])
-    const nc = lot.submitted.nonconformancesOpened[0]!
-    const jpeg = await sharp({ create: { width: 640, height: 480, channels: 3, background: '#a63' } }).jpeg().toBuffer()
-    const res = await request(app)
-      .post(`/api/nonconformances/${nc.id}/photos`)
-      .set('Authorization', w.operator.auth)
-      .field('clientId', uuid())
-      .field('caption', 'Thin film at the flange edge')
-      .attach('file', jpeg, 'flange.jpg')
-    expect(res.status).toBe(201)
-    expect(res.body).toMatchObject({ width: 640, height: 480, caption: 'Thin film at the flange edge' })
-    const detail = await request(app).get(`/api/nonconformances/${nc.id}`).set('Authorization', w.supervisor.auth)
-    expect(detail.body.photos.map((p: { id: number }) => p.id)).toEqual([res.body.id])
-    const [rows] = await sequelize.query(`SELECT nonconformance_id, lot_id FROM photos WHERE id = ${res.body.id}`)
-    expect(rows).toEqual([{ nonconformance_id: nc.id, lot_id: lot.id }])
   })
 })

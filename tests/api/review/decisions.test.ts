@@ -4,7 +4,17 @@ import { createApp } from '../../../server/app'
 import { LotDecision } from '../../../server/db/models'
 import { updatePlantSettings } from '../../../server/api/settings/settings.service'
 import { DEFAULT_SETTINGS } from '../../../shared/api/setup'
-import { GOOD_SPOTS_UM, THIN_SPOTS_UM, decide, inspectedLot, lotVersion, reviewWorld, submit, submittedLot, type ReviewWorld } from './reviewSupport'
+import {
+  GOOD_SPOTS_UM,
+  THIN_SPOTS_UM,
+  decide,
+  inspectedLot,
+  lotVersion,
+  reviewWorld,
+  submit,
+  submittedLot,
+  type ReviewWorld,
+} from './reviewSupport'
 
 const app = createApp()
 let w: ReviewWorld
@@ -20,7 +30,9 @@ describe('submitting a lot for review', () => {
     expect(res.status).toBe(409)
     expect(res.body.error.code).toBe('inspection_incomplete')
     expect(res.body.error.message).toContain('VB-2')
-    expect(res.body.error.details.parts.map((p: { partId: number }) => p.partId)).toEqual([lot.partIds[1]])
+    expect(res.body.error.details.parts.map((p: { partId: number }) => p.partId)).toEqual([
+      lot.partIds[1],
+    ])
   })
 
   it('moves a fully inspected lot to awaiting review, once', async () => {
@@ -38,21 +50,33 @@ describe('submitting a lot for review', () => {
     const lot = await submittedLot(app, w, [THIN_SPOTS_UM, GOOD_SPOTS_UM, THIN_SPOTS_UM])
     const opened = lot.submitted.nonconformancesOpened
     expect(opened).toHaveLength(2)
-    for (const nc of opened as unknown as { number: string; criterion: string; source: string; defectLabel: string; parts: { id: number }[] }[]) {
+    for (const nc of opened as unknown as {
+      number: string
+      criterion: string
+      source: string
+      defectLabel: string
+      parts: { id: number }[]
+    }[]) {
       // Our own scheme: NC-, ISO year and week, sequence.
       expect(nc.number).toMatch(/^NC-\d{4}-\d{3}$/)
       expect(nc.source).toBe('auto')
       expect(nc.criterion).toBe('thickness')
       expect(nc.defectLabel).toMatch(/^Thin film/)
     }
-    expect(opened.map((n) => (n as unknown as { parts: { id: number }[] }).parts[0]!.id)).toEqual([lot.partIds[0], lot.partIds[2]])
+    expect(opened.map((n) => (n as unknown as { parts: { id: number }[] }).parts[0]!.id)).toEqual([
+      lot.partIds[0],
+      lot.partIds[2],
+    ])
   })
 
   it('is for the floor: a manager may not submit', async () => {
     const lot = await inspectedLot(app, w, [GOOD_SPOTS_UM])
     const manager = await (await import('../support/fixtures')).createUser('manager')
     const auth = await (await import('../support/fixtures')).tokenFor(app, manager)
-    const res = await request(app).post(`/api/lots/${lot.id}/submit`).set('Authorization', auth).send({})
+    const res = await request(app)
+      .post(`/api/lots/${lot.id}/submit`)
+      .set('Authorization', auth)
+      .send({})
     expect(res.status).toBe(403)
   })
 })
@@ -63,7 +87,11 @@ describe('the decision state machine', () => {
     const res = await decide(app, w, w.supervisor, lot.id, 'release')
     expect(res.status).toBe(201)
     expect(res.body.lot.status).toBe('released')
-    expect(res.body.decision).toMatchObject({ decision: 'release', independenceWaived: false, decided: { byId: w.supervisor.user.id } })
+    expect(res.body.decision).toMatchObject({
+      decision: 'release',
+      independenceWaived: false,
+      decided: { byId: w.supervisor.user.id },
+    })
     for (const d of ['release', 'hold', 'reject']) {
       const again = await decide(app, w, w.supervisor, lot.id, d, 'second thoughts')
       expect(again.status).toBe(409)
@@ -82,7 +110,9 @@ describe('the decision state machine', () => {
     const release = await decide(app, w, w.supervisor, lot.id, 'release')
     expect(release.status).toBe(201)
     expect(release.body.lot.status).toBe('released')
-    const list = await request(app).get(`/api/lots/${lot.id}/decisions`).set('Authorization', w.operator.auth)
+    const list = await request(app)
+      .get(`/api/lots/${lot.id}/decisions`)
+      .set('Authorization', w.operator.auth)
     expect(list.body.map((d: { decision: string }) => d.decision)).toEqual(['hold', 'release'])
   })
 
@@ -135,8 +165,12 @@ describe('the decision state machine', () => {
     const lot = await submittedLot(app, w, [GOOD_SPOTS_UM])
     await decide(app, w, w.supervisor, lot.id, 'hold', 'Checking')
     const { sequelize } = await import('../../../server/db')
-    await expect(sequelize.query(`UPDATE lot_decisions SET reason = 'nothing' WHERE lot_id = ${lot.id}`)).rejects.toThrow(/append-only/)
-    await expect(sequelize.query(`DELETE FROM lot_decisions WHERE lot_id = ${lot.id}`)).rejects.toThrow(/append-only/)
+    await expect(
+      sequelize.query(`UPDATE lot_decisions SET reason = 'nothing' WHERE lot_id = ${lot.id}`),
+    ).rejects.toThrow(/append-only/)
+    await expect(
+      sequelize.query(`DELETE FROM lot_decisions WHERE lot_id = ${lot.id}`),
+    ).rejects.toThrow(/append-only/)
     expect(await LotDecision.count({ where: { lotId: lot.id } })).toBe(1)
   })
 })
@@ -148,9 +182,23 @@ describe('release blocked', () => {
     const res = await decide(app, w, w.supervisor, lot.id, 'release')
     expect(res.status).toBe(409)
     expect(res.body.error.code).toBe('release_blocked')
-    const blockers = res.body.error.details.blockers as { kind: string; number?: string; partId?: number; criterion?: string }[]
-    expect(blockers).toContainEqual(expect.objectContaining({ kind: 'nonconformance', number: nc.number, status: 'open' }))
-    expect(blockers).toContainEqual(expect.objectContaining({ kind: 'part', partId: lot.partIds[0], criterion: 'thickness', status: 'fail' }))
+    const blockers = res.body.error.details.blockers as {
+      kind: string
+      number?: string
+      partId?: number
+      criterion?: string
+    }[]
+    expect(blockers).toContainEqual(
+      expect.objectContaining({ kind: 'nonconformance', number: nc.number, status: 'open' }),
+    )
+    expect(blockers).toContainEqual(
+      expect.objectContaining({
+        kind: 'part',
+        partId: lot.partIds[0],
+        criterion: 'thickness',
+        status: 'fail',
+      }),
+    )
     expect(blockers.some((b) => b.partId === lot.partIds[1])).toBe(false)
   })
 })
@@ -160,8 +208,12 @@ describe('independence of the releaser', () => {
     // The supervisor inspects the lot themselves.
     const lot = await inspectedLot(app, w, [GOOD_SPOTS_UM], w.supervisor)
     expect((await submit(app, w.supervisor, lot.id)).status).toBe(200)
-    const queue = await request(app).get('/api/review/queue').set('Authorization', w.supervisor2.auth)
-    expect(queue.body.find((q: { id: number }) => q.id === lot.id).recorderIds).toEqual([w.supervisor.user.id])
+    const queue = await request(app)
+      .get('/api/review/queue')
+      .set('Authorization', w.supervisor2.auth)
+    expect(queue.body.find((q: { id: number }) => q.id === lot.id).recorderIds).toEqual([
+      w.supervisor.user.id,
+    ])
 
     const refused = await decide(app, w, w.supervisor, lot.id, 'release')
     expect(refused.status).toBe(403)
@@ -175,7 +227,10 @@ describe('independence of the releaser', () => {
       const row = await LotDecision.findOne({ where: { lotId: lot.id } })
       expect(row!.independenceWaived).toBe(true)
     } finally {
-      await updatePlantSettings(w.admin.user, { ...DEFAULT_SETTINGS, allowRecorderToRelease: false })
+      await updatePlantSettings(w.admin.user, {
+        ...DEFAULT_SETTINGS,
+        allowRecorderToRelease: false,
+      })
     }
   })
 
@@ -192,8 +247,14 @@ describe('two supervisors at once', () => {
     const lot = await submittedLot(app, w, [GOOD_SPOTS_UM])
     const version = await lotVersion(app, w, lot.id)
     const send = (by: typeof w.supervisor, decision: string, reason: string) =>
-      request(app).post(`/api/lots/${lot.id}/decisions`).set('Authorization', by.auth).send({ decision, reason, version })
-    const [a, b] = await Promise.all([send(w.supervisor, 'release', ''), send(w.supervisor2, 'hold', 'Recheck the holiday log')])
+      request(app)
+        .post(`/api/lots/${lot.id}/decisions`)
+        .set('Authorization', by.auth)
+        .send({ decision, reason, version })
+    const [a, b] = await Promise.all([
+      send(w.supervisor, 'release', ''),
+      send(w.supervisor2, 'hold', 'Recheck the holiday log'),
+    ])
     const statuses = [a.status, b.status].sort()
     expect(statuses).toEqual([201, 409])
     const loser = a.status === 409 ? a : b

@@ -73,7 +73,13 @@ export async function reviewWorld(app: Express): Promise<ReviewWorld> {
 }
 
 /** Records every section and 15 readings on a part, as `by` (the operator unless said). */
-export async function inspectPart(app: Express, w: ReviewWorld, partId: number, spotsUm: number[][], by: Person = w.operator) {
+export async function inspectPart(
+  app: Express,
+  w: ReviewWorld,
+  partId: number,
+  spotsUm: number[][],
+  by: Person = w.operator,
+) {
   await recordSections(app, by.auth, partId, conformingSections(w.ids))
   const res = await request(app)
     .post(`/api/parts/${partId}/readings`)
@@ -84,11 +90,20 @@ export async function inspectPart(app: Express, w: ReviewWorld, partId: number, 
 }
 
 /** Opens a lot with one part per entry and inspects each with those spots (null: left uninspected). */
-export async function inspectedLot(app: Express, w: ReviewWorld, spots: (number[][] | null)[], by: Person = w.operator) {
+export async function inspectedLot(
+  app: Express,
+  w: ReviewWorld,
+  spots: (number[][] | null)[],
+  by: Person = w.operator,
+) {
   const res = await request(app)
     .post('/api/lots')
     .set('Authorization', by.auth)
-    .send(lotBody(w.customerId, w.specId, { parts: spots.map((_, i) => partBody({ partNumber: `VB-${i + 1}` })) }))
+    .send(
+      lotBody(w.customerId, w.specId, {
+        parts: spots.map((_, i) => partBody({ partNumber: `VB-${i + 1}` })),
+      }),
+    )
   if (res.status !== 201) throw new Error(`open lot: ${res.status} ${JSON.stringify(res.body)}`)
   const lot = res.body as { id: number; lotNumber: string; parts: { id: number }[] }
   for (const [i, s] of spots.entries()) if (s) await inspectPart(app, w, lot.parts[i]!.id, s, by)
@@ -104,9 +119,19 @@ export function submit(app: Express, by: Person, lotId: number) {
   return request(app).post(`/api/lots/${lotId}/submit`).set('Authorization', by.auth).send({})
 }
 
-export async function decide(app: Express, w: ReviewWorld, by: Person, lotId: number, decision: string, reason = '') {
+export async function decide(
+  app: Express,
+  w: ReviewWorld,
+  by: Person,
+  lotId: number,
+  decision: string,
+  reason = '',
+) {
   const version = await lotVersion(app, w, lotId)
-  return request(app).post(`/api/lots/${lotId}/decisions`).set('Authorization', by.auth).send({ decision, reason, version })
+  return request(app)
+    .post(`/api/lots/${lotId}/decisions`)
+    .set('Authorization', by.auth)
+    .send({ decision, reason, version })
 }
 
 /** A lot inspected and submitted, ready for a decision. */
@@ -114,7 +139,12 @@ export async function submittedLot(app: Express, w: ReviewWorld, spots: (number[
   const lot = await inspectedLot(app, w, spots)
   const res = await submit(app, w.operator, lot.id)
   if (res.status !== 200) throw new Error(`submit: ${res.status} ${JSON.stringify(res.body)}`)
-  return { ...lot, submitted: res.body as { nonconformancesOpened: { id: number; number: string; version: number; criterion: string }[] } }
+  return {
+    ...lot,
+    submitted: res.body as {
+      nonconformancesOpened: { id: number; number: string; version: number; criterion: string }[]
+    },
+  }
 }
 
 export { uuid }
