@@ -36,3 +36,21 @@ export async function nextLotNumber(line: Line, at: Date, t: Transaction): Promi
   )
   return `${prefix}-${String(row!.last_seq).padStart(3, '0')}`
 }
+
+/** `count` consecutive numbers of one line and week in one statement (the demo seed's bulk path). */
+export async function reserveLotNumbers(
+  line: Line,
+  at: Date,
+  count: number,
+  t: Transaction,
+): Promise<string[]> {
+  const prefix = lotNumberPrefix(line, at)
+  const [row] = await sequelize.query<{ last_seq: number }>(
+    `INSERT INTO lot_number_counters (prefix, last_seq) VALUES ($1, $2)
+     ON CONFLICT (prefix) DO UPDATE SET last_seq = lot_number_counters.last_seq + $2
+     RETURNING last_seq`,
+    { bind: [prefix, count], type: QueryTypes.SELECT, transaction: t },
+  )
+  const first = row!.last_seq - count + 1
+  return Array.from({ length: count }, (_, i) => `${prefix}-${String(first + i).padStart(3, '0')}`)
+}

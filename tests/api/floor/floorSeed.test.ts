@@ -25,8 +25,16 @@ beforeAll(async () => {
 describe('demo shop-floor history', () => {
   it('seeds months of lots on both lines and three shifts, quickly', async () => {
     console.info(`floor history seeded in ${seconds.toFixed(1)} s`)
-    expect(seconds).toBeLessThan(20)
-    const [span] = await q<{ days: number; lines: number; shifts: number; lots: number; readings: number }>(
+    // The whole demo seed (every seeder, bcrypt included): about 7 s for the floor history on an
+    // idle 2-core box; the bound leaves room for test files running in parallel.
+    expect(seconds).toBeLessThan(30)
+    const [span] = await q<{
+      days: number
+      lines: number
+      shifts: number
+      lots: number
+      readings: number
+    }>(
       `SELECT (max(created_at)::date - min(created_at)::date) AS days, count(DISTINCT line)::int AS lines,
               count(DISTINCT shift)::int AS shifts, count(*)::int AS lots,
               (SELECT count(*)::int FROM gauge_readings) AS readings FROM lots`,
@@ -56,22 +64,44 @@ describe('demo shop-floor history', () => {
   })
 
   it('leaves a lot awaiting review with a failing part, and open lots for the operator', async () => {
-    const review = (await request(app).get('/api/lots').query({ status: 'awaiting-review' }).set('Authorization', auth)).body as LotRow[]
+    const review = (
+      await request(app)
+        .get('/api/lots')
+        .query({ status: 'awaiting-review' })
+        .set('Authorization', auth)
+    ).body as LotRow[]
     expect(review.some((l) => l.partsFailed > 0)).toBe(true)
-    const open = (await request(app).get('/api/lots').query({ status: 'open' }).set('Authorization', auth)).body as LotRow[]
+    const open = (
+      await request(app).get('/api/lots').query({ status: 'open' }).set('Authorization', auth)
+    ).body as LotRow[]
     expect(open.length).toBeGreaterThanOrEqual(2)
     const failing = review.find((l) => l.partsFailed > 0)!
-    const detail = (await request(app).get(`/api/lots/${failing.id}`).set('Authorization', auth)).body as LotDetail
+    const detail = (await request(app).get(`/api/lots/${failing.id}`).set('Authorization', auth))
+      .body as LotDetail
     expect(detail.lotVerdict.status).toBe('fail')
   })
 
   it('stored verdicts are what the shared rules compute from the stored rows', async () => {
-    const sample = await q<{ id: number }>(`SELECT id FROM parts WHERE sampled ORDER BY id LIMIT 40`)
+    const sample = await q<{ id: number }>(
+      `SELECT id FROM parts WHERE sampled ORDER BY id LIMIT 40`,
+    )
     for (const { id } of sample) {
-      const part = (await request(app).get(`/api/parts/${id}`).set('Authorization', auth)).body as PartDetail
-      const sections = Object.values(part.sections).map((s) => ({ section: s!.section, round: s!.round, data: s!.data }))
-      const readings = part.readings.map((r) => ({ ...r, instrumentKind: 'dft-gauge-type2' as const }))
-      const local = evaluatePart(part.spec, partInfoFor(part), assemblePartInput(part.spec.thickness.rule, part.round, sections, readings))
+      const part = (await request(app).get(`/api/parts/${id}`).set('Authorization', auth))
+        .body as PartDetail
+      const sections = Object.values(part.sections).map((s) => ({
+        section: s!.section,
+        round: s!.round,
+        data: s!.data,
+      }))
+      const readings = part.readings.map((r) => ({
+        ...r,
+        instrumentKind: 'dft-gauge-type2' as const,
+      }))
+      const local = evaluatePart(
+        part.spec,
+        partInfoFor(part),
+        assemblePartInput(part.spec.thickness.rule, part.round, sections, readings),
+      )
       expect(part.verdict).toEqual(local)
     }
   })

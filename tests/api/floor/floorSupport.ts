@@ -18,9 +18,19 @@ export const uuid = () => randomUUID()
 export const FBE_SPEC: SpecContent = specContentSchema.parse({
   coatingType: 'FBE',
   thickness: { rule: 'SSPC-PA2', bandUnit: 'mil', minUm: 12 * MIL, maxUm: 20 * MIL, pa2Level: 3 },
-  surfacePrep: { grade: 'SSPC-SP10/Sa2.5', profileMethod: 'C-replica-tape', profileMinUm: 38, profileMaxUm: 100 },
+  surfacePrep: {
+    grade: 'SSPC-SP10/Sa2.5',
+    profileMethod: 'C-replica-tape',
+    profileMinUm: 38,
+    profileMaxUm: 100,
+  },
   climate: { minSteelAboveDewPointC: 3, maxRelativeHumidityPct: 85 },
-  holiday: { required: true, method: 'high-voltage', voltageRule: 'NACE-SP0490', voltageTolerancePct: 5 },
+  holiday: {
+    required: true,
+    method: 'high-voltage',
+    voltageRule: 'NACE-SP0490',
+    voltageTolerancePct: 5,
+  },
   cure: { dsc: { minDeltaTgC: -2, maxDeltaTgC: 3 } },
   adhesion: { crossCut: { method: 'A', minGrade: 5 }, knife: { minRating: 8 } },
   sampling: { mode: 'every-part' },
@@ -29,9 +39,23 @@ export const FBE_SPEC: SpecContent = specContentSchema.parse({
 let n = 0
 export async function createCustomerAndSpec(content: SpecContent = FBE_SPEC) {
   n += 1
-  const customer = await Customer.create({ name: `Floor Test Water ${n} ${uuid().slice(0, 6)}`, code: `FT${n}${uuid().slice(0, 4)}` })
-  const spec = await CoatingSpec.create({ code: `FT-FBE-${n}-${uuid().slice(0, 4)}`, title: 'Test FBE', customerId: null, currentVersion: 1 })
-  await SpecVersion.create({ specId: spec.id, version: 1, content, createdBy: null, lockedAt: null })
+  const customer = await Customer.create({
+    name: `Floor Test Water ${n} ${uuid().slice(0, 6)}`,
+    code: `FT${n}${uuid().slice(0, 4)}`,
+  })
+  const spec = await CoatingSpec.create({
+    code: `FT-FBE-${n}-${uuid().slice(0, 4)}`,
+    title: 'Test FBE',
+    customerId: null,
+    currentVersion: 1,
+  })
+  await SpecVersion.create({
+    specId: spec.id,
+    version: 1,
+    content,
+    createdBy: null,
+    lockedAt: null,
+  })
   return { customer, spec }
 }
 
@@ -61,18 +85,41 @@ export function lotBody(customerId: number, specId: number, extra: Record<string
 }
 
 export function partBody(extra: Record<string, unknown> = {}) {
-  return { clientId: uuid(), partNumber: 'VB-150-PN16', description: 'Gate valve body DN150', heatNumber: `H${uuid().slice(0, 6)}`, coatedAreaM2: 0.8, ...extra }
+  return {
+    clientId: uuid(),
+    partNumber: 'VB-150-PN16',
+    description: 'Gate valve body DN150',
+    heatNumber: `H${uuid().slice(0, 6)}`,
+    coatedAreaM2: 0.8,
+    ...extra,
+  }
 }
 
 /** Five spots of three readings in one area (a part under 100 ft² is one area: SSPC-PA 2 [R]). */
-export function spotReadings(instrumentId: number, spotsUm: number[][], areaNo = 1, firstSpotNo = 1) {
+export function spotReadings(
+  instrumentId: number,
+  spotsUm: number[][],
+  areaNo = 1,
+  firstSpotNo = 1,
+) {
   return spotsUm.flatMap((readings, s) =>
-    readings.map((thicknessUm) => ({ clientId: uuid(), areaNo, spotNo: firstSpotNo + s, thicknessUm, instrumentId })),
+    readings.map((thicknessUm) => ({
+      clientId: uuid(),
+      areaNo,
+      spotNo: firstSpotNo + s,
+      thicknessUm,
+      instrumentId,
+    })),
   )
 }
 
 /** Every non-thickness section of a conforming FBE part. */
-export function conformingSections(ids: { thermometer: number; micrometer: number; sparkTester: number; gauge: number }) {
+export function conformingSections(ids: {
+  thermometer: number
+  micrometer: number
+  sparkTester: number
+  gauge: number
+}) {
   return {
     // Replica tape: 4.2 mil read − 2.0 mil backing = 2.2 mil (55.88 µm) profile, inside 38–100 µm (§4 [R] backing).
     'surface-prep': {
@@ -80,25 +127,46 @@ export function conformingSections(ids: { thermometer: number; micrometer: numbe
       data: {
         gradeRecorded: 'SSPC-SP10/Sa2.5',
         profileMethod: 'C-replica-tape',
-        profileLocations: [{ readingsUm: [4.2 * MIL] }, { readingsUm: [4.2 * MIL] }, { readingsUm: [4.2 * MIL] }],
+        profileLocations: [
+          { readingsUm: [4.2 * MIL] },
+          { readingsUm: [4.2 * MIL] },
+          { readingsUm: [4.2 * MIL] },
+        ],
       },
     },
     // 20 °C / 60 % RH → dew point 12.00 °C; steel 25 °C is 13 °C above (§5 Magnus check [C]).
-    climate: { instrumentId: ids.thermometer, data: { airTempC: 20, relativeHumidityPct: 60, steelTempC: 25 } },
+    climate: {
+      instrumentId: ids.thermometer,
+      data: { airTempC: 20, relativeHumidityPct: 60, steelTempC: 25 },
+    },
     'thickness-gauge': { instrumentId: ids.gauge, data: { gaugeType: 'type-2' } },
     // 16 mils → 525 √16 = 2,100 V (NACE SP0490, §3 check [C]).
-    holiday: { instrumentId: ids.sparkTester, data: { method: 'high-voltage', voltageUsedV: 2100, thicknessBasisUm: 16 * MIL, holidays: [] } },
+    holiday: {
+      instrumentId: ids.sparkTester,
+      data: {
+        method: 'high-voltage',
+        voltageUsedV: 2100,
+        thicknessBasisUm: 16 * MIL,
+        holidays: [],
+      },
+    },
     cure: { instrumentId: null, data: { dsc: { deltaTgC: 0.5 } } },
     adhesion: { instrumentId: null, data: { crossCut: { grade: '5A' }, knife: { rating: 9 } } },
   } as const
 }
 
-export async function recordSections(app: Express, auth: string, partId: number, sections: ReturnType<typeof conformingSections>) {
+export async function recordSections(
+  app: Express,
+  auth: string,
+  partId: number,
+  sections: ReturnType<typeof conformingSections>,
+) {
   for (const [section, body] of Object.entries(sections)) {
     const res = await request(app)
       .put(`/api/parts/${partId}/sections/${section}`)
       .set('Authorization', auth)
       .send({ clientId: uuid(), ...body })
-    if (res.status !== 200) throw new Error(`section ${section}: ${res.status} ${JSON.stringify(res.body)}`)
+    if (res.status !== 200)
+      throw new Error(`section ${section}: ${res.status} ${JSON.stringify(res.body)}`)
   }
 }

@@ -4,7 +4,16 @@ import { createApp } from '../../../server/app'
 import { createUser, tokenFor } from '../support/fixtures'
 import { GaugeReading, Lot } from '../../../server/db/models'
 import type { PartDetail, ReadingsBatchResult } from '../../../shared/api/lots'
-import { conformingSections, createCustomerAndSpec, createInstrument, lotBody, partBody, recordSections, spotReadings, uuid } from './floorSupport'
+import {
+  conformingSections,
+  createCustomerAndSpec,
+  createInstrument,
+  lotBody,
+  partBody,
+  recordSections,
+  spotReadings,
+  uuid,
+} from './floorSupport'
 
 const app = createApp()
 let auth: string
@@ -21,8 +30,15 @@ const GOOD = [
 ]
 
 async function newPart() {
-  const res = await request(app).post('/api/lots').set('Authorization', auth).send(lotBody(customerId, specId, { parts: [partBody()] }))
-  return { lotId: res.body.id as number, lotNumber: res.body.lotNumber as string, partId: res.body.parts[0].id as number }
+  const res = await request(app)
+    .post('/api/lots')
+    .set('Authorization', auth)
+    .send(lotBody(customerId, specId, { parts: [partBody()] }))
+  return {
+    lotId: res.body.id as number,
+    lotNumber: res.body.lotNumber as string,
+    partId: res.body.parts[0].id as number,
+  }
 }
 
 const post = (partId: number, readings: unknown[]) =>
@@ -32,7 +48,13 @@ const verify = (instrumentId: number, readingUm: number) =>
     .post(`/api/instruments/${instrumentId}/verifications`)
     .set('Authorization', auth)
     // A 250 µm reference shim checked to ± 10 µm: values chosen for the test [P: shop practice].
-    .send({ clientId: uuid(), referenceNominalUm: 250, toleranceUm: 10, readingUm, occasion: 'end-of-shift' })
+    .send({
+      clientId: uuid(),
+      referenceNominalUm: 250,
+      toleranceUm: 10,
+      readingUm,
+      occasion: 'end-of-shift',
+    })
 
 beforeAll(async () => {
   auth = await tokenFor(app, await createUser('operator'))
@@ -53,7 +75,9 @@ describe('shift verification', () => {
     expect(res.status).toBe(201)
     expect(res.body.verification.passed).toBe(true)
     expect(res.body.suspectCount).toBe(0)
-    const list = await request(app).get(`/api/instruments/${ids.gauge}/verifications`).set('Authorization', auth)
+    const list = await request(app)
+      .get(`/api/instruments/${ids.gauge}/verifications`)
+      .set('Authorization', auth)
     expect(list.body[0].readingUm).toBe(260)
   })
 
@@ -75,7 +99,8 @@ describe('shift verification', () => {
     expect(failed.body.suspectCount).toBe(9) // only the 9 readings after the good check
     expect(failed.body.affectedPartIds).toEqual([partId])
 
-    let part = (await request(app).get(`/api/parts/${partId}`).set('Authorization', auth)).body as PartDetail
+    let part = (await request(app).get(`/api/parts/${partId}`).set('Authorization', auth))
+      .body as PartDetail
     const suspect = part.readings.filter((r) => r.suspect)
     expect(suspect.map((r) => r.spotNo).sort()).toEqual([3, 3, 3, 4, 4, 4, 5, 5, 5])
     expect(part.verdict!.status).toBe('incomplete')
@@ -88,15 +113,23 @@ describe('shift verification', () => {
     expect(remeasured.body.verdict.status).toBe('incomplete')
 
     for (const r of suspect) {
-      const d = await request(app).post(`/api/readings/${r.id}/discard`).set('Authorization', auth).send({ reason: 'Gauge failed end-of-shift check' })
+      const d = await request(app)
+        .post(`/api/readings/${r.id}/discard`)
+        .set('Authorization', auth)
+        .send({ reason: 'Gauge failed end-of-shift check' })
       expect(d.status).toBe(200)
       expect(d.body.reading.discarded).toBe(true)
     }
-    part = (await request(app).get(`/api/parts/${partId}`).set('Authorization', auth)).body as PartDetail
+    part = (await request(app).get(`/api/parts/${partId}`).set('Authorization', auth))
+      .body as PartDetail
     expect(part.verdict!.status).toBe('pass')
     // Nothing was deleted: 6 + 9 + 9 readings, 9 flagged and discarded with the reason.
     expect(part.readings).toHaveLength(24)
-    expect(part.readings.filter((r) => r.discarded).every((r) => r.discardReason === 'Gauge failed end-of-shift check')).toBe(true)
+    expect(
+      part.readings
+        .filter((r) => r.discarded)
+        .every((r) => r.discardReason === 'Gauge failed end-of-shift check'),
+    ).toBe(true)
   })
 
   it('a reading arriving late from an offline tablet, taken before a failed check, is stored suspect', async () => {
@@ -107,7 +140,10 @@ describe('shift verification', () => {
     const takenAt = new Date().toISOString() // after the good check, before the failed one
     await new Promise((r) => setTimeout(r, 20))
     await verify(gauge.id, 300)
-    const res = await post(partId, spotReadings(gauge.id, [[400, 400, 400]]).map((r) => ({ ...r, takenAt })))
+    const res = await post(
+      partId,
+      spotReadings(gauge.id, [[400, 400, 400]]).map((r) => ({ ...r, takenAt })),
+    )
     expect(res.status).toBe(201)
     expect((res.body as ReadingsBatchResult).readings.every((r) => r.suspect)).toBe(true)
   })
@@ -160,17 +196,27 @@ describe('no lost work, nothing twice', () => {
     await Lot.update({ status: 'on-hold' }, { where: { id: lotId } })
     const readings = await post(partId, spotReadings(ids.gauge, [[400, 400, 400]]))
     expect(readings.status).toBe(409)
-    expect(readings.body.error.message).toBe(`Lot ${lotNumber} is on hold: a supervisor must reopen it before readings are added`)
+    expect(readings.body.error.message).toBe(
+      `Lot ${lotNumber} is on hold: a supervisor must reopen it before readings are added`,
+    )
     const section = await request(app)
       .put(`/api/parts/${partId}/sections/notes`)
       .set('Authorization', auth)
       .send({ clientId: uuid(), instrumentId: null, data: { text: 'late note' } })
     expect(section.status).toBe(409)
-    const part = await request(app).post(`/api/lots/${lotId}/parts`).set('Authorization', auth).send(partBody())
+    const part = await request(app)
+      .post(`/api/lots/${lotId}/parts`)
+      .set('Authorization', auth)
+      .send(partBody())
     expect(part.status).toBe(409)
     await Lot.update({ status: 'released' }, { where: { id: lotId } })
-    const patch = await request(app).patch(`/api/parts/${partId}`).set('Authorization', auth).send({ version: 1, heatNumber: 'X' })
+    const patch = await request(app)
+      .patch(`/api/parts/${partId}`)
+      .set('Authorization', auth)
+      .send({ version: 1, heatNumber: 'X' })
     expect(patch.status).toBe(409)
-    expect(patch.body.error.message).toMatch(/has been released: its inspection records can no longer change/)
+    expect(patch.body.error.message).toMatch(
+      /has been released: its inspection records can no longer change/,
+    )
   })
 })

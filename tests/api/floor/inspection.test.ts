@@ -35,7 +35,10 @@ const GOOD_SPOTS_UM = [
 ]
 
 async function openLotWithPart(extraPart: Record<string, unknown> = {}) {
-  const res = await request(app).post('/api/lots').set('Authorization', auth).send(lotBody(customerId, specId, { parts: [partBody(extraPart)] }))
+  const res = await request(app)
+    .post('/api/lots')
+    .set('Authorization', auth)
+    .send(lotBody(customerId, specId, { parts: [partBody(extraPart)] }))
   expect(res.status).toBe(201)
   return res.body as { id: number; lotNumber: string; parts: { id: number }[] }
 }
@@ -69,7 +72,9 @@ describe('a full FBE part through the API', () => {
 
   it('numbers lots of the same line and week one after the other, even when opened at once', async () => {
     const bodies = Array.from({ length: 6 }, () => lotBody(customerId, specId))
-    const results = await Promise.all(bodies.map((b) => request(app).post('/api/lots').set('Authorization', auth).send(b)))
+    const results = await Promise.all(
+      bodies.map((b) => request(app).post('/api/lots').set('Authorization', auth).send(b)),
+    )
     const numbers = results.map((r) => r.body.lotNumber as string)
     expect(results.every((r) => r.status === 201)).toBe(true)
     expect(new Set(numbers).size).toBe(6)
@@ -89,7 +94,8 @@ describe('a full FBE part through the API', () => {
     expect(res.body.storedCount).toBe(15)
     expect(res.body.verdict.status).toBe('pass')
 
-    const part = (await request(app).get(`/api/parts/${partId}`).set('Authorization', auth)).body as PartDetail
+    const part = (await request(app).get(`/api/parts/${partId}`).set('Authorization', auth))
+      .body as PartDetail
     expect(part.verdict!.status).toBe('pass')
     expect(part.verdict!.criteria.map((c) => [c.criterion, c.status])).toEqual([
       ['surface-prep', 'pass'],
@@ -102,7 +108,14 @@ describe('a full FBE part through the API', () => {
     // 0.8 m² ≈ 8.6 ft² < 100 ft²: one area of 5 spots (SSPC-PA 2 area-count rule [R]).
     expect(part.verdict!.samplingPlan.progress).toBe('5 of 5 spots')
     expect(part.readings).toHaveLength(15)
-    expect(Object.keys(part.sections).sort()).toEqual(['adhesion', 'climate', 'cure', 'holiday', 'surface-prep', 'thickness-gauge'])
+    expect(Object.keys(part.sections).sort()).toEqual([
+      'adhesion',
+      'climate',
+      'cure',
+      'holiday',
+      'surface-prep',
+      'thickness-gauge',
+    ])
     const stored = await Part.findByPk(partId)
     expect(stored!.verdictStatus).toBe('pass')
     expect(stored!.firstPassStatus).toBe('pass')
@@ -130,9 +143,14 @@ describe('a full FBE part through the API', () => {
     // Spot 3 mean 240 µm (9.45 mil) < 80 % × 12 mils = 9.6 mil (243.84 µm): SSPC-PA 2 level 3 [M],
     // "any spot below the restriction fails whatever the mean" (§1 worked example [C]).
     const spots = GOOD_SPOTS_UM.map((s, i) => (i === 2 ? [230, 240, 250] : s))
-    const res = await request(app).post(`/api/parts/${partId}/readings`).set('Authorization', auth).send({ readings: spotReadings(ids.gauge, spots) })
+    const res = await request(app)
+      .post(`/api/parts/${partId}/readings`)
+      .set('Authorization', auth)
+      .send({ readings: spotReadings(ids.gauge, spots) })
     expect(res.status).toBe(201)
-    const thickness = res.body.verdict.criteria.find((c: { criterion: string }) => c.criterion === 'thickness')
+    const thickness = res.body.verdict.criteria.find(
+      (c: { criterion: string }) => c.criterion === 'thickness',
+    )
     expect(thickness.status).toBe('fail')
     expect(thickness.reason).toMatch(/Area 1, spot 3/)
     expect(thickness.reason).toMatch(/spot minimum 9\.60 mil/)
@@ -152,13 +170,31 @@ describe('a full FBE part through the API', () => {
       [399.99, 400.01, 400],
       [612.4, 600.2, 590.7],
     ]
-    const readings = [...spotReadings(ids.gauge, spots, 1), ...spotReadings(ids.gauge, spots.slice(0, 3), 2)]
-    const res = await request(app).post(`/api/parts/${partId}/readings`).set('Authorization', auth).send({ readings })
+    const readings = [
+      ...spotReadings(ids.gauge, spots, 1),
+      ...spotReadings(ids.gauge, spots.slice(0, 3), 2),
+    ]
+    const res = await request(app)
+      .post(`/api/parts/${partId}/readings`)
+      .set('Authorization', auth)
+      .send({ readings })
     expect(res.status).toBe(201)
-    const part = (await request(app).get(`/api/parts/${partId}`).set('Authorization', auth)).body as PartDetail
-    const sectionRows = Object.values(part.sections).map((s) => ({ section: s!.section, round: s!.round, data: s!.data }))
-    const readingRows = part.readings.map((r) => ({ ...r, instrumentKind: 'dft-gauge-type2' as const }))
-    const local = evaluatePart(part.spec, partInfoFor(part), assemblePartInput(part.spec.thickness.rule, part.round, sectionRows, readingRows))
+    const part = (await request(app).get(`/api/parts/${partId}`).set('Authorization', auth))
+      .body as PartDetail
+    const sectionRows = Object.values(part.sections).map((s) => ({
+      section: s!.section,
+      round: s!.round,
+      data: s!.data,
+    }))
+    const readingRows = part.readings.map((r) => ({
+      ...r,
+      instrumentKind: 'dft-gauge-type2' as const,
+    }))
+    const local = evaluatePart(
+      part.spec,
+      partInfoFor(part),
+      assemblePartInput(part.spec.thickness.rule, part.round, sectionRows, readingRows),
+    )
     expect(part.verdict).toEqual(local)
     expect(local.samplingPlan.progress).toBe('8 of 10 spots')
     // Sent as numbers, stored as double precision, read back bit for bit.
@@ -174,7 +210,9 @@ describe('refusals', () => {
       .set('Authorization', auth)
       .send(lotBody(customerId, specId, { batchNumber: 'PB-2291', batchExpiresOn: '2024-11-12' }))
     expect(res.status).toBe(400)
-    expect(res.body.error.message).toBe('Powder batch PB-2291 expired on 2024-11-12: use an in-date batch')
+    expect(res.body.error.message).toBe(
+      'Powder batch PB-2291 expired on 2024-11-12: use an in-date batch',
+    )
   })
 
   it('refuses readings from an overdue gauge, naming its serial and due date', async () => {
@@ -205,7 +243,11 @@ describe('refusals', () => {
     const res = await request(app)
       .put(`/api/parts/${lot.parts[0]!.id}/sections/climate`)
       .set('Authorization', auth)
-      .send({ clientId: uuid(), instrumentId: null, data: { airTempC: 20, relativeHumidityPct: 160, steelTempC: 25 } })
+      .send({
+        clientId: uuid(),
+        instrumentId: null,
+        data: { airTempC: 20, relativeHumidityPct: 160, steelTempC: 25 },
+      })
     expect(res.status).toBe(400)
     expect(res.body.error.details[0].field).toBe('body.data.relativeHumidityPct')
   })
@@ -213,10 +255,16 @@ describe('refusals', () => {
   it('answers a stale PATCH with 409 and the current record', async () => {
     const lot = await openLotWithPart()
     const partId = lot.parts[0]!.id
-    const first = await request(app).patch(`/api/parts/${partId}`).set('Authorization', auth).send({ version: 1, heatNumber: 'H-NEW-1' })
+    const first = await request(app)
+      .patch(`/api/parts/${partId}`)
+      .set('Authorization', auth)
+      .send({ version: 1, heatNumber: 'H-NEW-1' })
     expect(first.status).toBe(200)
     expect(first.body.version).toBe(2)
-    const stale = await request(app).patch(`/api/parts/${partId}`).set('Authorization', auth).send({ version: 1, heatNumber: 'H-OLD' })
+    const stale = await request(app)
+      .patch(`/api/parts/${partId}`)
+      .set('Authorization', auth)
+      .send({ version: 1, heatNumber: 'H-OLD' })
     expect(stale.status).toBe(409)
     expect(stale.body.error.details.current.heatNumber).toBe('H-NEW-1')
   })

@@ -24,7 +24,9 @@ function crc32(buf: Buffer): number {
 
 /** A tiny PNG whose header claims width × height pixels: a decompression bomb's signature. */
 async function pngClaiming(width: number, height: number): Promise<Buffer> {
-  const png = await sharp({ create: { width: 8, height: 8, channels: 3, background: '#888' } }).png().toBuffer()
+  const png = await sharp({ create: { width: 8, height: 8, channels: 3, background: '#888' } })
+    .png()
+    .toBuffer()
   const out = Buffer.from(png)
   out.writeUInt32BE(width, 16)
   out.writeUInt32BE(height, 20)
@@ -32,7 +34,12 @@ async function pngClaiming(width: number, height: number): Promise<Buffer> {
   return out
 }
 
-const upload = (partId: number, file: Buffer, filename: string, caption = 'Holiday repair, flange face') =>
+const upload = (
+  partId: number,
+  file: Buffer,
+  filename: string,
+  caption = 'Holiday repair, flange face',
+) =>
   request(app)
     .post(`/api/parts/${partId}/photos`)
     .set('Authorization', auth)
@@ -47,32 +54,55 @@ beforeAll(async () => {
   const res = await request(app)
     .post('/api/lots')
     .set('Authorization', auth)
-    .send(lotBody(customer.id, spec.id, { orderRef: 'PO-AWB-77120', parts: [partBody({ heatNumber: 'HT-58213-B' }), partBody()] }))
+    .send(
+      lotBody(customer.id, spec.id, {
+        orderRef: 'PO-AWB-77120',
+        parts: [partBody({ heatNumber: 'HT-58213-B' }), partBody()],
+      }),
+    )
   lot = res.body
 })
 
 describe('photos', () => {
   it('stores a JPEG with a thumbnail and serves both privately', async () => {
-    const jpeg = await sharp({ create: { width: 1200, height: 800, channels: 3, background: '#3a6' } }).jpeg().toBuffer()
+    const jpeg = await sharp({
+      create: { width: 1200, height: 800, channels: 3, background: '#3a6' },
+    })
+      .jpeg()
+      .toBuffer()
     const res = await upload(lot.parts[0]!.id, jpeg, '../../etc/passwd.jpg')
     expect(res.status).toBe(201)
-    expect(res.body).toMatchObject({ partId: lot.parts[0]!.id, width: 1200, height: 800, caption: 'Holiday repair, flange face' })
+    expect(res.body).toMatchObject({
+      partId: lot.parts[0]!.id,
+      width: 1200,
+      height: 800,
+      caption: 'Holiday repair, flange face',
+    })
     const full = await request(app).get(`/api/photos/${res.body.id}`).set('Authorization', auth)
     expect(full.status).toBe(200)
     expect(full.headers['content-type']).toBe('image/jpeg')
     expect(full.headers['cache-control']).toMatch(/^private/)
     expect(Buffer.compare(full.body as Buffer, jpeg)).toBe(0)
-    const thumb = await request(app).get(`/api/photos/${res.body.id}/thumb`).set('Authorization', auth)
+    const thumb = await request(app)
+      .get(`/api/photos/${res.body.id}/thumb`)
+      .set('Authorization', auth)
     expect(thumb.headers['content-type']).toBe('image/webp')
     const meta = await sharp(thumb.body as Buffer).metadata()
     expect(Math.max(meta.width, meta.height)).toBe(320)
     const detail = await request(app).get(`/api/lots/${lot.id}`).set('Authorization', auth)
     expect(detail.body.photos.map((p: { id: number }) => p.id)).toContain(res.body.id)
-    expect((await request(app).get(`/api/photos/${res.body.id}`).set('Authorization', customerAuth)).status).toBe(403)
+    expect(
+      (await request(app).get(`/api/photos/${res.body.id}`).set('Authorization', customerAuth))
+        .status,
+    ).toBe(403)
   })
 
   it('refuses a text file renamed .jpg, judged by its content', async () => {
-    const res = await upload(lot.parts[0]!.id, Buffer.from('just some notes, not a photo\n'.repeat(20)), 'photo.jpg')
+    const res = await upload(
+      lot.parts[0]!.id,
+      Buffer.from('just some notes, not a photo\n'.repeat(20)),
+      'photo.jpg',
+    )
     expect(res.status).toBe(415)
     expect(res.body.error.message).toMatch(/not a JPEG, PNG, WebP or HEIC/)
   })
@@ -89,7 +119,9 @@ describe('photos', () => {
   })
 
   it('a lot-level photo naming a part of another lot is refused', async () => {
-    const png = await sharp({ create: { width: 40, height: 30, channels: 3, background: '#fff' } }).png().toBuffer()
+    const png = await sharp({ create: { width: 40, height: 30, channels: 3, background: '#fff' } })
+      .png()
+      .toBuffer()
     const res = await request(app)
       .post(`/api/lots/${lot.id + 1000}/photos`)
       .set('Authorization', auth)
@@ -109,16 +141,27 @@ describe('lot list', () => {
       expect(res.body.map((l: { id: number }) => l.id)).toContain(lot.id)
       expect(res.headers['x-total-count']).toBe(String(res.body.length))
     }
-    const none = await request(app).get('/api/lots').query({ q: 'HT-00000-Z' }).set('Authorization', auth)
+    const none = await request(app)
+      .get('/api/lots')
+      .query({ q: 'HT-00000-Z' })
+      .set('Authorization', auth)
     expect(none.body).toEqual([])
   })
 
   it('filters by status and line and counts parts', async () => {
-    const res = await request(app).get('/api/lots').query({ status: 'open', line: 'fbe-powder' }).set('Authorization', auth)
+    const res = await request(app)
+      .get('/api/lots')
+      .query({ status: 'open', line: 'fbe-powder' })
+      .set('Authorization', auth)
     const row = res.body.find((l: { id: number }) => l.id === lot.id)
     expect(row).toMatchObject({ partCount: 2, partsIncomplete: 2, partsPassed: 0, status: 'open' })
-    const other = await request(app).get('/api/lots').query({ line: 'liquid-epoxy' }).set('Authorization', auth)
+    const other = await request(app)
+      .get('/api/lots')
+      .query({ line: 'liquid-epoxy' })
+      .set('Authorization', auth)
     expect(other.body.find((l: { id: number }) => l.id === lot.id)).toBeUndefined()
-    expect((await request(app).get('/api/lots').set('Authorization', customerAuth)).status).toBe(403)
+    expect((await request(app).get('/api/lots').set('Authorization', customerAuth)).status).toBe(
+      403,
+    )
   })
 })
