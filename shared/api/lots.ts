@@ -41,7 +41,15 @@ export type Shift = (typeof SHIFTS)[number]
 export const LOT_STATUSES = ['open', 'awaiting-review', 'on-hold', 'released', 'rejected'] as const
 export type LotStatus = (typeof LOT_STATUSES)[number]
 
-export const SECTIONS = ['surface-prep', 'climate', 'thickness-gauge', 'holiday', 'cure', 'adhesion', 'notes'] as const
+export const SECTIONS = [
+  'surface-prep',
+  'climate',
+  'thickness-gauge',
+  'holiday',
+  'cure',
+  'adhesion',
+  'notes',
+] as const
 export type SectionName = (typeof SECTIONS)[number]
 
 const clientId = z.string().uuid('clientId must be a UUID made on the device')
@@ -59,7 +67,10 @@ export const partBodySchema = z.object({
   /** Spec sampling mode 'sample': only sampled parts are inspected. */
   sampled: z.boolean().default(true),
 })
-export const updatePartSchema = partBodySchema.omit({ clientId: true }).partial().extend({ version: z.number().int() })
+export const updatePartSchema = partBodySchema
+  .omit({ clientId: true })
+  .partial()
+  .extend({ version: z.number().int() })
 
 export const createLotSchema = z.object({
   clientId,
@@ -76,7 +87,14 @@ export const createLotSchema = z.object({
   parts: z.array(partBodySchema).max(500).default([]),
 })
 export const updateLotSchema = createLotSchema
-  .pick({ orderRef: true, shift: true, coatingMaterial: true, batchNumber: true, batchExpiresOn: true, notes: true })
+  .pick({
+    orderRef: true,
+    shift: true,
+    coatingMaterial: true,
+    batchNumber: true,
+    batchExpiresOn: true,
+    notes: true,
+  })
   .partial()
   .extend({ version: z.number().int() })
 
@@ -124,7 +142,9 @@ export const readingSchema = z.object({
   takenAt: z.string().datetime({ offset: true }).optional(),
 })
 export const readingsBodySchema = z.object({ readings: z.array(readingSchema).min(1).max(500) })
-export const discardReadingSchema = z.object({ reason: text(300).min(3, 'Say why the reading is discarded') })
+export const discardReadingSchema = z.object({
+  reason: text(300).min(3, 'Say why the reading is discarded'),
+})
 
 export const verificationSchema = z.object({
   clientId,

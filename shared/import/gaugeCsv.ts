@@ -79,7 +79,11 @@ export function parseGaugeCsv(text: string, options: GaugeCsvOptions = {}): Gaug
   const hasHeader = first.some((c) => c.trim() !== '' && toNumber(c, decimalComma) === null)
   const col = (k: 'area' | 'spot' | 'reading' | 'unit') => kinds.indexOf(k)
   const structured = hasHeader && col('area') >= 0 && col('spot') >= 0 && col('reading') >= 0
-  const readingCol = structured ? col('reading') : hasHeader && col('reading') >= 0 ? col('reading') : 0
+  const readingCol = structured
+    ? col('reading')
+    : hasHeader && col('reading') >= 0
+      ? col('reading')
+      : 0
   const headerUnit = hasHeader ? unitIn(first[readingCol] ?? '') : null
   const fileUnit: CsvUnit = headerUnit ?? options.defaultUnit ?? 'um'
   const unitCol = structured ? col('unit') : -1
@@ -94,7 +98,9 @@ export function parseGaugeCsv(text: string, options: GaugeCsvOptions = {}): Gaug
     }
     const um = unit === 'mil' ? milsToMicrons(value) : value
     if (um < 0 || um > MAX_UM) {
-      errors.push(`row ${rowNo}: ${value} ${unit === 'mil' ? 'mil' : 'µm'} is outside 0–${MAX_UM} µm`)
+      errors.push(
+        `row ${rowNo}: ${value} ${unit === 'mil' ? 'mil' : 'µm'} is outside 0–${MAX_UM} µm`,
+      )
       return null
     }
     return um
@@ -110,7 +116,12 @@ export function parseGaugeCsv(text: string, options: GaugeCsvOptions = {}): Gaug
       rows.push(
         rule === 'ISO-19840'
           ? { areaNo: 1, spotNo: 0, thicknessUm: um, row: rowNo }
-          : { areaNo: Math.floor(spotIndex / perArea) + 1, spotNo: (spotIndex % perArea) + 1, thicknessUm: um, row: rowNo },
+          : {
+              areaNo: Math.floor(spotIndex / perArea) + 1,
+              spotNo: (spotIndex % perArea) + 1,
+              thicknessUm: um,
+              row: rowNo,
+            },
       )
       count += 1
       return
@@ -119,7 +130,9 @@ export function parseGaugeCsv(text: string, options: GaugeCsvOptions = {}): Gaug
     const area = toNumber(cells[col('area')] ?? '', false)
     const spot = toNumber(cells[col('spot')] ?? '', false)
     if (area === null || !Number.isInteger(area) || area < 1) {
-      errors.push(`row ${rowNo}: area '${(cells[col('area')] ?? '').trim()}' is not a whole number from 1`)
+      errors.push(
+        `row ${rowNo}: area '${(cells[col('area')] ?? '').trim()}' is not a whole number from 1`,
+      )
       return
     }
     if (spot === null || !Number.isInteger(spot) || spot < 0) {
@@ -129,5 +142,10 @@ export function parseGaugeCsv(text: string, options: GaugeCsvOptions = {}): Gaug
     const um = reading(cells[readingCol], rowNo, unit)
     if (um !== null) rows.push({ areaNo: area, spotNo: spot, thicknessUm: um, row: rowNo })
   })
-  return { layout: structured ? 'area-spot-reading' : 'single-column', rows, errors, unit: fileUnit }
+  return {
+    layout: structured ? 'area-spot-reading' : 'single-column',
+    rows,
+    errors,
+    unit: fileUnit,
+  }
 }

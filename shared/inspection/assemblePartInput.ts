@@ -59,8 +59,10 @@ export function assemblePartInput(
   const input: PartInspectionInput = {}
   if (current.has('surface-prep'))
     input.surfacePrep = current.get('surface-prep') as PartInspectionInput['surfacePrep']
-  if (current.has('climate')) input.climate = current.get('climate') as PartInspectionInput['climate']
-  if (current.has('holiday')) input.holiday = current.get('holiday') as PartInspectionInput['holiday']
+  if (current.has('climate'))
+    input.climate = current.get('climate') as PartInspectionInput['climate']
+  if (current.has('holiday'))
+    input.holiday = current.get('holiday') as PartInspectionInput['holiday']
   if (current.has('cure')) input.cure = current.get('cure') as PartInspectionInput['cure']
   if (current.has('adhesion'))
     input.adhesion = current.get('adhesion') as PartInspectionInput['adhesion']
@@ -76,10 +78,12 @@ export function assemblePartInput(
   if (!gauge && live.length === 0) return input
 
   const gaugeType =
-    gauge?.gaugeType ?? (live.some((r) => r.instrumentKind === 'dft-gauge-type1') ? 'type-1' : 'type-2')
+    gauge?.gaugeType ??
+    (live.some((r) => r.instrumentKind === 'dft-gauge-type1') ? 'type-1' : 'type-2')
   const thickness: NonNullable<PartInspectionInput['thickness']> = { gaugeType }
   if (gauge?.baseMetalReadingsUm?.length) thickness.baseMetalReadingsUm = gauge.baseMetalReadingsUm
-  if (gauge?.baseMetalReadingUm !== undefined) thickness.baseMetalReadingUm = gauge.baseMetalReadingUm
+  if (gauge?.baseMetalReadingUm !== undefined)
+    thickness.baseMetalReadingUm = gauge.baseMetalReadingUm
   if (live.some((r) => r.suspect)) thickness.suspectReadings = true
 
   if (rule === 'ISO-19840') {
@@ -90,12 +94,16 @@ export function assemblePartInput(
       let area = areas[areas.length - 1]
       if (!area || area.key !== r.areaNo) areas.push((area = { key: r.areaNo, spots: [] }))
       let spot = area.spots[area.spots.length - 1]
-      if (!spot || spot.key !== r.spotNo) area.spots.push((spot = { key: r.spotNo, readingsUm: [] }))
+      if (!spot || spot.key !== r.spotNo)
+        area.spots.push((spot = { key: r.spotNo, readingsUm: [] }))
       spot.readingsUm.push(r.thicknessUm)
     }
     thickness.areas = areas.map((a) => ({
       label: `Area ${a.key}`,
-      spots: a.spots.map((s) => ({ label: `Area ${a.key} spot ${s.key}`, readingsUm: s.readingsUm })),
+      spots: a.spots.map((s) => ({
+        label: `Area ${a.key} spot ${s.key}`,
+        readingsUm: s.readingsUm,
+      })),
     }))
   }
   input.thickness = thickness
@@ -120,7 +128,11 @@ export function thicknessMeanUm(input: PartInspectionInput): number | null {
 }
 
 /** The rules' part info from stored columns: the sampling plan works in ft² (SSPC-PA 2 areas). */
-export function partInfoFor(part: { coatedAreaM2: number | null; partNumber: string; heatNumber?: string }): PartInfo {
+export function partInfoFor(part: {
+  coatedAreaM2: number | null
+  partNumber: string
+  heatNumber?: string
+}): PartInfo {
   return {
     coatedAreaFt2: part.coatedAreaM2 === null ? null : squareMetresToSquareFeet(part.coatedAreaM2),
     label: part.heatNumber ? `${part.partNumber} / ${part.heatNumber}` : part.partNumber,

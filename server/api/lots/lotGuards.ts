@@ -22,14 +22,24 @@ export function assertLotOpen(lot: { lotNumber: string; status: LotStatus }, doi
       : lot.status === 'rejected'
         ? 'its inspection records can no longer change'
         : `a supervisor must reopen it ${doing}`
-  throw new HttpError(409, 'lot_not_open', `Lot ${lot.lotNumber} ${STATUS_WORDS[lot.status]}: ${advice}`, {
-    lotNumber: lot.lotNumber,
-    status: lot.status,
-  })
+  throw new HttpError(
+    409,
+    'lot_not_open',
+    `Lot ${lot.lotNumber} ${STATUS_WORDS[lot.status]}: ${advice}`,
+    {
+      lotNumber: lot.lotNumber,
+      status: lot.status,
+    },
+  )
 }
 
 /** A powder or paint batch past its expiry date is never applied (its data sheet no longer holds). */
-export function assertBatchInDate(line: Line, batchNumber: string, expiresOn: string, today = localIsoDate()) {
+export function assertBatchInDate(
+  line: Line,
+  batchNumber: string,
+  expiresOn: string,
+  today = localIsoDate(),
+) {
   if (expiresOn >= today) return
   const what = line === 'fbe-powder' ? 'Powder batch' : 'Paint batch'
   const message = `${what} ${batchNumber} expired on ${expiresOn}: use an in-date batch`

@@ -67,7 +67,11 @@ export function toLotRow(r: LotSqlRow): LotRow {
     partsPassed: r.parts_passed,
     partsFailed: r.parts_failed,
     partsIncomplete: r.parts_incomplete,
-    opened: { byId: r.opened_by, byName: r.opened_by_name, at: new Date(r.created_at).toISOString() },
+    opened: {
+      byId: r.opened_by,
+      byName: r.opened_by_name,
+      at: new Date(r.created_at).toISOString(),
+    },
     version: r.version,
   }
 }
@@ -118,6 +122,10 @@ export async function photoRowsOfLot(lotId: number, t?: Transaction): Promise<Ph
     caption: r.caption,
     width: r.width,
     height: r.height,
-    uploaded: { byId: r.uploaded_by, byName: r.uploader_name, at: new Date(r.uploaded_at).toISOString() },
+    uploaded: {
+      byId: r.uploaded_by,
+      byName: r.uploader_name,
+      at: new Date(r.uploaded_at).toISOString(),
+    },
   }))
 }

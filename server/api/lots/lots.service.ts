@@ -4,7 +4,13 @@ import { inTransaction, sequelize } from '../../db'
 import { CoatingSpec, Customer, Lot, Part } from '../../db/models'
 import { recordAudit, snapshot, type AuditActor } from '../../audit/audit.service'
 import { HttpError, conflict, notFound } from '../../lib/httpError'
-import type { LotDetail, LotRow, createLotSchema, lotListQuerySchema, updateLotSchema } from '../../../shared/api/lots'
+import type {
+  LotDetail,
+  LotRow,
+  createLotSchema,
+  lotListQuerySchema,
+  updateLotSchema,
+} from '../../../shared/api/lots'
 import { evaluateLot } from '../../../shared/rules/evaluateLot'
 import type { PartVerdict } from '../../../shared/rules/evaluatePart'
 import type { SpecContent } from '../../../shared/spec/specContent'
@@ -52,18 +58,30 @@ export async function getLotDetail(id: number, t?: Transaction): Promise<LotDeta
 }
 
 /** POST /api/lots. The lot is numbered, keeps the spec's current version (locked), and may bring parts. */
-export async function openLot(actor: AuditActor, body: CreateLotBody): Promise<{ lot: LotDetail; created: boolean }> {
+export async function openLot(
+  actor: AuditActor,
+  body: CreateLotBody,
+): Promise<{ lot: LotDetail; created: boolean }> {
   return inTransaction(async (t) => {
     const replay = await Lot.findOne({ where: { clientId: body.clientId }, transaction: t })
     if (replay) return { lot: await getLotDetail(replay.id, t), created: false }
     const customer = await Customer.findByPk(body.customerId, { transaction: t })
-    if (!customer) throw badReference('body.customerId', `Customer #${body.customerId} does not exist`)
-    if (!customer.active) throw badReference('body.customerId', `Customer ${customer.name} is no longer active`)
+    if (!customer)
+      throw badReference('body.customerId', `Customer #${body.customerId} does not exist`)
+    if (!customer.active)
+      throw badReference('body.customerId', `Customer ${customer.name} is no longer active`)
     const spec = await CoatingSpec.findByPk(body.specId, { transaction: t })
     if (!spec) throw badReference('body.specId', `Coating spec #${body.specId} does not exist`)
-    if (!spec.active) throw badReference('body.specId', `Coating spec ${spec.code} is retired: choose an active spec`)
+    if (!spec.active)
+      throw badReference(
+        'body.specId',
+        `Coating spec ${spec.code} is retired: choose an active spec`,
+      )
     if (spec.customerId !== null && spec.customerId !== customer.id) {
-      throw badReference('body.specId', `Coating spec ${spec.code} is another customer's own spec, not ${customer.name}'s`)
+      throw badReference(
+        'body.specId',
+        `Coating spec ${spec.code} is another customer's own spec, not ${customer.name}'s`,
+      )
     }
     assertBatchInDate(body.line, body.batchNumber, body.batchExpiresOn)
     const version = await lockSpecVersion(spec.id, spec.currentVersion, t, actor)
@@ -86,36 +104,69 @@ export async function openLot(actor: AuditActor, body: CreateLotBody): Promise<{
       },
       { transaction: t },
     )
-    await recordAudit(t, actor, { action: 'lot.open', entityType: 'lot', entityId: lot.id, lotId: lot.id, after: lot })
+    await recordAudit(t, actor, {
+      action: 'lot.open',
+      entityType: 'lot',
+      entityId: lot.id,
+      lotId: lot.id,
+      after: lot,
+    })
     for (const p of body.parts) await createPartIn(lot, content, p, actor, t)
     return { lot: await getLotDetail(lot.id, t), created: true }
   })
 }
 
-const EDITABLE = ['orderRef', 'shift', 'coatingMaterial', 'batchNumber', 'batchExpiresOn', 'notes'] as const
+const EDITABLE = [
+  'orderRef',
+  'shift',
+  'coatingMaterial',
+  'batchNumber',
+  'batchExpiresOn',
+  'notes',
+] as const
 
 /** PATCH /api/lots/:id: header fields while the lot is open, with an optimistic version. */
-export async function updateLot(actor: AuditActor, id: number, body: UpdateLotBody): Promise<LotDetail> {
+export async function updateLot(
+  actor: AuditActor,
+  id: number,
+  body: UpdateLotBody,
+): Promise<LotDetail> {
   return inTransaction(async (t) => {
     const lot = await Lot.findByPk(id, { lock: t.LOCK.UPDATE, transaction: t })
     if (!lot) throw notFound(`Lot #${id}`)
     if (lot.version !== body.version) {
-      throw conflict('version_conflict', `Lot ${lot.lotNumber} was changed by someone else meanwhile: review the current values and try again`, {
-        current: await getLotDetail(id, t),
-      })
+      throw conflict(
+        'version_conflict',
+        `Lot ${lot.lotNumber} was changed by someone else meanwhile: review the current values and try again`,
+        {
+          current: await getLotDetail(id, t),
+        },
+      )
     }
     assertLotOpen(lot, 'before its header is changed')
     const changes: Partial<Pick<Lot, (typeof EDITABLE)[number]>> = {}
     for (const key of EDITABLE) {
-      if (body[key] !== undefined && body[key] !== lot[key]) Object.assign(changes, { [key]: body[key] })
+      if (body[key] !== undefined && body[key] !== lot[key])
+        Object.assign(changes, { [key]: body[key] })
     }
     if (Object.keys(changes).length === 0) return getLotDetail(id, t)
     if (changes.batchNumber !== undefined || changes.batchExpiresOn !== undefined) {
-      assertBatchInDate(lot.line, changes.batchNumber ?? lot.batchNumber, changes.batchExpiresOn ?? lot.batchExpiresOn)
+      assertBatchInDate(
+        lot.line,
+        changes.batchNumber ?? lot.batchNumber,
+        changes.batchExpiresOn ?? lot.batchExpiresOn,
+      )
     }
     const before = snapshot(lot)
     await lot.update({ ...changes, version: lot.version + 1 }, { transaction: t })
-    await recordAudit(t, actor, { action: 'lot.update', entityType: 'lot', entityId: id, lotId: id, before, after: lot })
+    await recordAudit(t, actor, {
+      action: 'lot.update',
+      entityType: 'lot',
+      entityId: id,
+      lotId: id,
+      before,
+      after: lot,
+    })
     return getLotDetail(id, t)
   })
 }
@@ -151,7 +202,10 @@ export async function listLots(query: LotListQuery): Promise<{ rows: LotRow[]; t
       `${LOT_ROW_SELECT} ${whereSql} ORDER BY l.created_at DESC, l.id DESC LIMIT ${query.limit} OFFSET ${query.offset}`,
       { bind, type: QueryTypes.SELECT },
     ),
-    sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM lots l ${whereSql}`, { bind, type: QueryTypes.SELECT }),
+    sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM lots l ${whereSql}`, {
+      bind,
+      type: QueryTypes.SELECT,
+    }),
   ])
   return { rows: rows.map(toLotRow), total: count!.n }
 }

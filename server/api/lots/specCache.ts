@@ -8,7 +8,11 @@ import { specContentSchema, type SpecContent } from '../../../shared/spec/specCo
  */
 const cache = new Map<string, SpecContent>()
 
-export async function specContentFor(specId: number, version: number, t?: Transaction): Promise<SpecContent> {
+export async function specContentFor(
+  specId: number,
+  version: number,
+  t?: Transaction,
+): Promise<SpecContent> {
   const key = `${specId}:${version}`
   const hit = cache.get(key)
   if (hit) return hit

@@ -2,7 +2,12 @@ import { QueryTypes, type Transaction } from 'sequelize'
 import { sequelize } from '../../db'
 import { Lot, Part } from '../../db/models'
 import { notFound } from '../../lib/httpError'
-import type { PartDetail, ReadingRow, SectionName, SectionRecordRow } from '../../../shared/api/lots'
+import type {
+  PartDetail,
+  ReadingRow,
+  SectionName,
+  SectionRecordRow,
+} from '../../../shared/api/lots'
 import { specContentFor } from '../lots/specCache'
 import { toPartRow } from '../lots/lots.rows'
 
@@ -46,16 +51,27 @@ export function toReadingRow(r: ReadingSqlRow): ReadingRow {
     discarded: r.discarded_at !== null,
     discardReason: r.discard_reason,
     takenAt: new Date(r.taken_at).toISOString(),
-    recorded: { byId: r.recorded_by, byName: r.recorder_name, at: new Date(r.recorded_at).toISOString() },
+    recorded: {
+      byId: r.recorded_by,
+      byName: r.recorder_name,
+      at: new Date(r.recorded_at).toISOString(),
+    },
   }
 }
 
-export async function readingRows(where: string, bind: unknown[], t?: Transaction): Promise<ReadingRow[]> {
-  const rows = await sequelize.query<ReadingSqlRow>(`${READING_SELECT} WHERE ${where} ORDER BY r.id`, {
-    bind,
-    type: QueryTypes.SELECT,
-    transaction: t,
-  })
+export async function readingRows(
+  where: string,
+  bind: unknown[],
+  t?: Transaction,
+): Promise<ReadingRow[]> {
+  const rows = await sequelize.query<ReadingSqlRow>(
+    `${READING_SELECT} WHERE ${where} ORDER BY r.id`,
+    {
+      bind,
+      type: QueryTypes.SELECT,
+      transaction: t,
+    },
+  )
   return rows.map(toReadingRow)
 }
 
@@ -88,7 +104,11 @@ async function sectionRows(partId: number, t?: Transaction): Promise<SectionReco
     instrumentId: r.instrument_id,
     instrumentSerial: r.serial,
     data: r.data,
-    recorded: { byId: r.recorded_by, byName: r.recorder_name, at: new Date(r.recorded_at).toISOString() },
+    recorded: {
+      byId: r.recorded_by,
+      byName: r.recorder_name,
+      at: new Date(r.recorded_at).toISOString(),
+    },
   }))
 }
 
@@ -96,7 +116,10 @@ async function sectionRows(partId: number, t?: Transaction): Promise<SectionReco
 export async function getPartDetail(partId: number, t?: Transaction): Promise<PartDetail> {
   const part = await Part.findByPk(partId, { transaction: t })
   if (!part) throw notFound(`Part #${partId}`)
-  const lot = await Lot.findByPk(part.lotId, { attributes: ['status', 'specId', 'specVersion'], transaction: t })
+  const lot = await Lot.findByPk(part.lotId, {
+    attributes: ['status', 'specId', 'specVersion'],
+    transaction: t,
+  })
   if (!lot) throw notFound(`Lot of part #${partId}`)
   const [spec, records, readings] = await Promise.all([
     specContentFor(lot.specId, lot.specVersion, t),

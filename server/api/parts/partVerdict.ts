@@ -20,7 +20,10 @@ export interface PartForVerdict {
 
 /** The part's current sections and live readings, in one round trip. */
 async function loadRows(partId: number, round: number, t: Transaction) {
-  const [row] = await sequelize.query<{ sections: SectionRowInput[] | null; readings: ReadingRowInput[] | null }>(
+  const [row] = await sequelize.query<{
+    sections: SectionRowInput[] | null
+    readings: ReadingRowInput[] | null
+  }>(
     `SELECT
        (SELECT json_agg(json_build_object('section', s.section, 'round', s.round, 'data', s.data) ORDER BY s.id)
           FROM (SELECT DISTINCT ON (section) id, section, round, data FROM section_records
@@ -43,7 +46,10 @@ export function verdictFromRows(
   readings: readonly ReadingRowInput[],
 ): { verdict: PartVerdict; thicknessMeanUm: number | null } {
   const input = assemblePartInput(spec.thickness.rule, part.round, sections, readings)
-  return { verdict: evaluatePart(spec, partInfoFor(part), input), thicknessMeanUm: thicknessMeanUm(input) }
+  return {
+    verdict: evaluatePart(spec, partInfoFor(part), input),
+    thicknessMeanUm: thicknessMeanUm(input),
+  }
 }
 
 /**
@@ -51,7 +57,11 @@ export function verdictFromRows(
  * lock): recompute the verdict from what is stored and store it, with the round-1 status kept
  * for first-pass yield and the mean thickness for trends.
  */
-export async function recomputePartVerdict(spec: SpecContent, part: PartForVerdict, t: Transaction): Promise<PartVerdict> {
+export async function recomputePartVerdict(
+  spec: SpecContent,
+  part: PartForVerdict,
+  t: Transaction,
+): Promise<PartVerdict> {
   const { sections, readings } = await loadRows(part.id, part.round, t)
   const { verdict, thicknessMeanUm: meanUm } = verdictFromRows(spec, part, sections, readings)
   await sequelize.query(

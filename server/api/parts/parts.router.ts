@@ -8,14 +8,20 @@ import { recordSection } from './sections.service'
 
 export const partsRouter = secureRouter('/api/parts')
 
-partsRouter.get('/:id', { roles: STAFF, params: idParams }, ({ params }) => getPartDetail(params.id))
+partsRouter.get('/:id', { roles: STAFF, params: idParams }, ({ params }) =>
+  getPartDetail(params.id),
+)
 
-partsRouter.patch('/:id', { roles: FLOOR, params: idParams, body: updatePartSchema }, ({ params, body, user }) =>
-  updatePart(user, params.id, body),
+partsRouter.patch(
+  '/:id',
+  { roles: FLOOR, params: idParams, body: updatePartSchema },
+  ({ params, body, user }) => updatePart(user, params.id, body),
 )
 
 const sectionParams = idParams.extend({ section: z.enum(SECTIONS) })
 
-partsRouter.put('/:id/sections/:section', { roles: FLOOR, params: sectionParams, body: sectionBodySchema }, ({ params, body, user }) =>
-  recordSection(user, params.id, params.section, body),
+partsRouter.put(
+  '/:id/sections/:section',
+  { roles: FLOOR, params: sectionParams, body: sectionBodySchema },
+  ({ params, body, user }) => recordSection(user, params.id, params.section, body),
 )

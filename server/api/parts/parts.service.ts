@@ -54,11 +54,16 @@ export async function createPartIn(
 }
 
 /** POST /api/lots/:id/parts. A replayed clientId answers the part already stored. */
-export async function addPart(actor: AuditActor, lotId: number, body: PartBody): Promise<{ part: PartDetail; created: boolean }> {
+export async function addPart(
+  actor: AuditActor,
+  lotId: number,
+  body: PartBody,
+): Promise<{ part: PartDetail; created: boolean }> {
   return inTransaction(async (t) => {
     const existing = await Part.findOne({ where: { clientId: body.clientId }, transaction: t })
     if (existing) {
-      if (existing.lotId !== lotId) throw conflict('client_id_reused', 'This clientId already belongs to a part of another lot')
+      if (existing.lotId !== lotId)
+        throw conflict('client_id_reused', 'This clientId already belongs to a part of another lot')
       return { part: await getPartDetail(existing.id, t), created: false }
     }
     const lot = await Lot.findByPk(lotId, { lock: t.LOCK.SHARE, transaction: t })
@@ -70,13 +75,27 @@ export async function addPart(actor: AuditActor, lotId: number, body: PartBody):
   })
 }
 
-const EDITABLE = ['partNumber', 'description', 'heatNumber', 'quantity', 'coatedAreaM2', 'sampled'] as const
+const EDITABLE = [
+  'partNumber',
+  'description',
+  'heatNumber',
+  'quantity',
+  'coatedAreaM2',
+  'sampled',
+] as const
 
 /** PATCH /api/parts/:id with an optimistic version; a changed coated area re-plans the sampling. */
-export async function updatePart(actor: AuditActor, partId: number, body: UpdatePartBody): Promise<PartDetail> {
+export async function updatePart(
+  actor: AuditActor,
+  partId: number,
+  body: UpdatePartBody,
+): Promise<PartDetail> {
   return inTransaction(async (t) => {
     const locked = await lockPartForWrite(partId, t)
-    assertLotOpen({ lotNumber: locked.lotNumber, status: locked.lotStatus }, 'before the part is changed')
+    assertLotOpen(
+      { lotNumber: locked.lotNumber, status: locked.lotStatus },
+      'before the part is changed',
+    )
     const part = (await Part.findByPk(partId, { transaction: t }))!
     if (part.version !== body.version) {
       throw conflict(
@@ -88,7 +107,8 @@ export async function updatePart(actor: AuditActor, partId: number, body: Update
     const before = snapshot(toPartRow(part))
     const changes: Partial<Pick<Part, (typeof EDITABLE)[number]>> = {}
     for (const key of EDITABLE) {
-      if (body[key] !== undefined && body[key] !== part[key]) Object.assign(changes, { [key]: body[key] })
+      if (body[key] !== undefined && body[key] !== part[key])
+        Object.assign(changes, { [key]: body[key] })
     }
     if (Object.keys(changes).length === 0) return getPartDetail(partId, t)
     await part.update({ ...changes, version: part.version + 1 }, { transaction: t })

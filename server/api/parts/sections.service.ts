@@ -46,21 +46,32 @@ export async function recordSection(
     throw invalid(['body', 'data', ...issue.path.map(String)].join('.'), issue.message)
   }
   return inTransaction(async (t) => {
-    const replay = await SectionRecord.findOne({ where: { clientId: body.clientId }, transaction: t })
+    const replay = await SectionRecord.findOne({
+      where: { clientId: body.clientId },
+      transaction: t,
+    })
     if (replay) {
-      if (replay.partId !== partId) throw conflict('client_id_reused', 'This clientId already belongs to a record of another part')
+      if (replay.partId !== partId)
+        throw conflict(
+          'client_id_reused',
+          'This clientId already belongs to a record of another part',
+        )
       return getPartDetail(partId, t)
     }
     const part = await lockPartForWrite(partId, t)
     assertLotOpen({ lotNumber: part.lotNumber, status: part.lotStatus }, 'before records are added')
     const kinds = SECTION_INSTRUMENT_KINDS[section]
     if (body.instrumentId !== null) {
-      if (kinds.length === 0) throw invalid('body.instrumentId', `The ${section} section takes no instrument`)
+      if (kinds.length === 0)
+        throw invalid('body.instrumentId', `The ${section} section takes no instrument`)
       const instrument = await assertInstrumentUsable(body.instrumentId, kinds, new Date(), t)
       const gaugeType = (parsed.data as { gaugeType?: string }).gaugeType
       const expected = GAUGE_TYPE_OF_KIND[instrument.kind]
       if (section === 'thickness-gauge' && expected && gaugeType !== expected) {
-        throw invalid('body.data.gaugeType', `Instrument ${instrument.serial} is a ${expected} gauge, not ${gaugeType}`)
+        throw invalid(
+          'body.data.gaugeType',
+          `Instrument ${instrument.serial} is a ${expected} gauge, not ${gaugeType}`,
+        )
       }
     }
     const record = await SectionRecord.create(
@@ -81,7 +92,14 @@ export async function recordSection(
       entityType: 'part',
       entityId: partId,
       lotId: part.lotId,
-      after: { section, round: part.round, recordId: record.id, instrumentId: body.instrumentId, data: parsed.data, verdictStatus: verdict.status },
+      after: {
+        section,
+        round: part.round,
+        recordId: record.id,
+        instrumentId: body.instrumentId,
+        data: parsed.data,
+        verdictStatus: verdict.status,
+      },
     })
     return getPartDetail(partId, t)
   })

@@ -14,7 +14,11 @@ export interface CheckedImage {
 }
 
 const notAnImage = () =>
-  new HttpError(415, 'unsupported_image', 'The file is not a JPEG, PNG, WebP or HEIC photo (its content was checked, not its name)')
+  new HttpError(
+    415,
+    'unsupported_image',
+    'The file is not a JPEG, PNG, WebP or HEIC photo (its content was checked, not its name)',
+  )
 
 /**
  * The type comes from the bytes (sharp reads the header), never from the file name or the
@@ -49,7 +53,12 @@ export async function checkImage(data: Buffer): Promise<CheckedImage> {
   try {
     thumb = await sharp(data, options)
       .autoOrient()
-      .resize({ width: THUMB_EDGE_PX, height: THUMB_EDGE_PX, fit: 'inside', withoutEnlargement: true })
+      .resize({
+        width: THUMB_EDGE_PX,
+        height: THUMB_EDGE_PX,
+        fit: 'inside',
+        withoutEnlargement: true,
+      })
       .webp({ quality: 75 })
       .toBuffer()
   } catch {

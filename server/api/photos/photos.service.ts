@@ -23,9 +23,21 @@ function receive(req: Request, res: Response): Promise<void> {
       if (err instanceof multer.MulterError) {
         if (err.code === 'LIMIT_FILE_SIZE') {
           const mb = (env.UPLOAD_MAX_BYTES / 1024 / 1024).toFixed(1)
-          return reject(new HttpError(413, 'too_large', `The photo is larger than ${mb} MB: take it at a lower resolution`))
+          return reject(
+            new HttpError(
+              413,
+              'too_large',
+              `The photo is larger than ${mb} MB: take it at a lower resolution`,
+            ),
+          )
         }
-        return reject(new HttpError(400, 'invalid_upload', `Send one photo as the "file" field (${err.message})`))
+        return reject(
+          new HttpError(
+            400,
+            'invalid_upload',
+            `Send one photo as the "file" field (${err.message})`,
+          ),
+        )
       }
       reject(err)
     })
@@ -64,13 +76,19 @@ export async function uploadPhoto(
   if (!fields.success) {
     const issue = fields.error.issues[0]!
     const field = `body.${issue.path.join('.')}`
-    throw new HttpError(400, 'invalid_input', `${field}: ${issue.message}`, [{ field, message: issue.message }])
+    throw new HttpError(400, 'invalid_input', `${field}: ${issue.message}`, [
+      { field, message: issue.message },
+    ])
   }
   const file = req.file
   if (!file) throw new HttpError(400, 'invalid_upload', 'Attach the photo as the "file" field')
   const image = await checkImage(file.buffer)
   return inTransaction(async (t) => {
-    const replay = await Photo.findOne({ where: { clientId: fields.data.clientId }, attributes: { exclude: ['data', 'thumb'] }, transaction: t })
+    const replay = await Photo.findOne({
+      where: { clientId: fields.data.clientId },
+      attributes: { exclude: ['data', 'thumb'] },
+      transaction: t,
+    })
     if (replay) {
       const by = await User.findByPk(replay.uploadedBy, { attributes: ['name'], transaction: t })
       return { photo: toPhotoRow(replay, by?.name ?? ''), created: false }
@@ -78,10 +96,17 @@ export async function uploadPhoto(
     const partId = target.partId ?? fields.data.partId ?? null
     let lotId = target.lotId ?? null
     if (partId !== null) {
-      const part = await Part.findByPk(partId, { attributes: ['id', 'lotId', 'partNumber'], transaction: t })
+      const part = await Part.findByPk(partId, {
+        attributes: ['id', 'lotId', 'partNumber'],
+        transaction: t,
+      })
       if (!part) throw notFound(`Part #${partId}`)
       if (lotId !== null && part.lotId !== lotId) {
-        throw new HttpError(400, 'part_of_another_lot', `Part ${part.partNumber} (#${part.id}) belongs to another lot, not to lot #${lotId}`)
+        throw new HttpError(
+          400,
+          'part_of_another_lot',
+          `Part ${part.partNumber} (#${part.id}) belongs to another lot, not to lot #${lotId}`,
+        )
       }
       lotId = part.lotId
     }
@@ -107,7 +132,13 @@ export async function uploadPhoto(
       { transaction: t },
     )
     const row = toPhotoRow(photo, actor.name)
-    await recordAudit(t, actor, { action: 'photo.upload', entityType: 'photo', entityId: photo.id, lotId: lot.id, after: { ...row, mime: image.mime, byteSize: file.size } })
+    await recordAudit(t, actor, {
+      action: 'photo.upload',
+      entityType: 'photo',
+      entityId: photo.id,
+      lotId: lot.id,
+      after: { ...row, mime: image.mime, byteSize: file.size },
+    })
     return { photo: row, created: true }
   })
 }
@@ -120,7 +151,9 @@ export async function sendPhoto(id: number, which: 'data' | 'thumb', res: Respon
   res.setHeader('Content-Type', which === 'data' ? photo.mime : 'image/webp')
   // Quality records: the browser may keep them, shared caches must not.
   res.setHeader('Cache-Control', 'private, max-age=86400')
-  res.setHeader('Content-Disposition', `inline; filename="photo-${photo.id}${which === 'thumb' ? '-thumb' : ''}"`)
+  res.setHeader(
+    'Content-Disposition',
+    `inline; filename="photo-${photo.id}${which === 'thumb' ? '-thumb' : ''}"`,
+  )
   res.send(bytes)
 }
-

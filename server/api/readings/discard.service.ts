@@ -14,25 +14,38 @@ import { readingRows } from '../parts/partDetail'
  * reading that cannot be repeated; a suspect reading is discarded before it is re-measured. The
  * reading is kept, flagged with who, when and why. Discarding twice answers the first discard.
  */
-export async function discardReading(actor: AuditActor, readingId: string, reason: string): Promise<DiscardResult> {
+export async function discardReading(
+  actor: AuditActor,
+  readingId: string,
+  reason: string,
+): Promise<DiscardResult> {
   return inTransaction(async (t) => {
-    const [found] = await sequelize.query<{ part_id: number }>('SELECT part_id FROM gauge_readings WHERE id = $1', {
-      bind: [readingId],
-      type: QueryTypes.SELECT,
-      transaction: t,
-    })
+    const [found] = await sequelize.query<{ part_id: number }>(
+      'SELECT part_id FROM gauge_readings WHERE id = $1',
+      {
+        bind: [readingId],
+        type: QueryTypes.SELECT,
+        transaction: t,
+      },
+    )
     if (!found) throw notFound(`Gauge reading #${readingId}`)
     const part = await lockPartForWrite(found.part_id, t)
     const [before] = await readingRows('r.id = $1', [readingId], t)
     if (before!.discarded) {
-      const [row] = await sequelize.query<{ verdict: PartVerdict }>('SELECT verdict FROM parts WHERE id = $1', {
-        bind: [part.id],
-        type: QueryTypes.SELECT,
-        transaction: t,
-      })
+      const [row] = await sequelize.query<{ verdict: PartVerdict }>(
+        'SELECT verdict FROM parts WHERE id = $1',
+        {
+          bind: [part.id],
+          type: QueryTypes.SELECT,
+          transaction: t,
+        },
+      )
       return { reading: before!, partVersion: part.version, verdict: row!.verdict }
     }
-    assertLotOpen({ lotNumber: part.lotNumber, status: part.lotStatus }, 'before readings are discarded')
+    assertLotOpen(
+      { lotNumber: part.lotNumber, status: part.lotStatus },
+      'before readings are discarded',
+    )
     if (before!.round !== part.round) {
       throw conflict(
         'earlier_round',

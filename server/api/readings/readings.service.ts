@@ -26,12 +26,16 @@ function checkBatchShape(readings: ReadingBody[]) {
   readings.forEach((r, i) => {
     if (seen.has(r.clientId)) {
       const message = 'The same clientId appears twice in one batch'
-      throw new HttpError(400, 'invalid_input', message, [{ field: `body.readings.${i}.clientId`, message }])
+      throw new HttpError(400, 'invalid_input', message, [
+        { field: `body.readings.${i}.clientId`, message },
+      ])
     }
     seen.add(r.clientId)
     if (r.takenAt && Date.parse(r.takenAt) > now + FUTURE_SLACK_MS) {
       const message = `Reading taken at ${r.takenAt} is in the future: check the tablet's clock`
-      throw new HttpError(400, 'invalid_input', message, [{ field: `body.readings.${i}.takenAt`, message }])
+      throw new HttpError(400, 'invalid_input', message, [
+        { field: `body.readings.${i}.takenAt`, message },
+      ])
     }
   })
 }
@@ -52,11 +56,14 @@ async function checkGauges(readings: ReadingBody[], t: Transaction): Promise<Map
 }
 
 async function storedVerdict(partId: number, t: Transaction): Promise<PartVerdict> {
-  const [row] = await sequelize.query<{ verdict: PartVerdict }>('SELECT verdict FROM parts WHERE id = $1', {
-    bind: [partId],
-    type: QueryTypes.SELECT,
-    transaction: t,
-  })
+  const [row] = await sequelize.query<{ verdict: PartVerdict }>(
+    'SELECT verdict FROM parts WHERE id = $1',
+    {
+      bind: [partId],
+      type: QueryTypes.SELECT,
+      transaction: t,
+    },
+  )
   return row!.verdict
 }
 
@@ -68,7 +75,11 @@ function inSentOrder(rows: ReadingRow[], readings: ReadingBody[]): ReadingRow[] 
 /** A batch whose every reading is already stored for this part: answer it as stored. */
 async function replayOf(part: LockedPart, readings: ReadingBody[], t: Transaction) {
   const ids = readings.map((r) => r.clientId)
-  const stored = await readingRows('r.client_id = ANY($1::uuid[]) AND r.part_id = $2', [ids, part.id], t)
+  const stored = await readingRows(
+    'r.client_id = ANY($1::uuid[]) AND r.part_id = $2',
+    [ids, part.id],
+    t,
+  )
   return stored.length === readings.length ? inSentOrder(stored, readings) : null
 }
 
@@ -85,12 +96,21 @@ export async function postReadings(
   return inTransaction(async (t) => {
     const part = await lockPartForWrite(partId, t)
     const replayAnswer = async (rows: ReadingRow[]) => ({
-      result: { readings: rows, storedCount: 0, partId, partVersion: part.version, verdict: await storedVerdict(partId, t) },
+      result: {
+        readings: rows,
+        storedCount: 0,
+        partId,
+        partVersion: part.version,
+        verdict: await storedVerdict(partId, t),
+      },
       created: false,
     })
     let serials: Map<number, string>
     try {
-      assertLotOpen({ lotNumber: part.lotNumber, status: part.lotStatus }, 'before readings are added')
+      assertLotOpen(
+        { lotNumber: part.lotNumber, status: part.lotStatus },
+        'before readings are added',
+      )
       serials = await checkGauges(readings, t)
     } catch (err) {
       // The answer to a batch that was stored may have been lost on the way back to the
@@ -99,34 +119,47 @@ export async function postReadings(
       if (rows) return replayAnswer(rows)
       throw err
     }
-    const inserted = await sequelize.query<{ id: string; client_id: string; suspect: boolean; taken_at: Date; recorded_at: Date }>(
-      INSERT_READINGS,
-      {
-        bind: [
-          part.id,
-          part.lotId,
-          part.round,
-          actor.id,
-          readings.map((r) => r.areaNo),
-          readings.map((r) => r.spotNo),
-          readings.map((r) => r.thicknessUm),
-          readings.map((r) => r.instrumentId),
-          readings.map((r) => r.takenAt ?? null),
-          readings.map((r) => r.clientId),
-        ],
-        type: QueryTypes.SELECT,
-        transaction: t,
-      },
-    )
+    const inserted = await sequelize.query<{
+      id: string
+      client_id: string
+      suspect: boolean
+      taken_at: Date
+      recorded_at: Date
+    }>(INSERT_READINGS, {
+      bind: [
+        part.id,
+        part.lotId,
+        part.round,
+        actor.id,
+        readings.map((r) => r.areaNo),
+        readings.map((r) => r.spotNo),
+        readings.map((r) => r.thicknessUm),
+        readings.map((r) => r.instrumentId),
+        readings.map((r) => r.takenAt ?? null),
+        readings.map((r) => r.clientId),
+      ],
+      type: QueryTypes.SELECT,
+      transaction: t,
+    })
     if (inserted.length < readings.length) {
       const foreign = await sequelize.query(FOREIGN_CLIENT_IDS, {
         bind: [readings.map((r) => r.clientId), part.id],
         type: QueryTypes.SELECT,
         transaction: t,
       })
-      if (foreign.length) throw conflict('client_id_reused', 'A clientId of this batch already belongs to a reading of another part')
+      if (foreign.length)
+        throw conflict(
+          'client_id_reused',
+          'A clientId of this batch already belongs to a reading of another part',
+        )
     }
-    if (inserted.length === 0) return replayAnswer(inSentOrder(await readingRows('r.client_id = ANY($1::uuid[])', [readings.map((r) => r.clientId)], t), readings))
+    if (inserted.length === 0)
+      return replayAnswer(
+        inSentOrder(
+          await readingRows('r.client_id = ANY($1::uuid[])', [readings.map((r) => r.clientId)], t),
+          readings,
+        ),
+      )
 
     const verdict = await recomputePartVerdict(part.spec, part, t)
     await recordAudit(t, actor, {
@@ -160,14 +193,27 @@ export async function postReadings(
           discarded: false,
           discardReason: null,
           takenAt: new Date(s.taken_at).toISOString(),
-          recorded: { byId: actor.id, byName: actor.name, at: new Date(s.recorded_at).toISOString() },
+          recorded: {
+            byId: actor.id,
+            byName: actor.name,
+            at: new Date(s.recorded_at).toISOString(),
+          },
         }
       })
     } else {
-      rows = inSentOrder(await readingRows('r.client_id = ANY($1::uuid[])', [readings.map((r) => r.clientId)], t), readings)
+      rows = inSentOrder(
+        await readingRows('r.client_id = ANY($1::uuid[])', [readings.map((r) => r.clientId)], t),
+        readings,
+      )
     }
     return {
-      result: { readings: rows, storedCount: inserted.length, partId: part.id, partVersion: part.version, verdict },
+      result: {
+        readings: rows,
+        storedCount: inserted.length,
+        partId: part.id,
+        partVersion: part.version,
+        verdict,
+      },
       created: true,
     }
   })

@@ -4,7 +4,11 @@ import { inTransaction, sequelize } from '../../db'
 import { AuditEvent, Instrument, InstrumentVerification } from '../../db/models'
 import { recordAudit, type AuditActor } from '../../audit/audit.service'
 import { conflict, notFound } from '../../lib/httpError'
-import type { VerificationResult, VerificationRow, verificationSchema } from '../../../shared/api/lots'
+import type {
+  VerificationResult,
+  VerificationRow,
+  verificationSchema,
+} from '../../../shared/api/lots'
 import { lockPartForWrite } from '../parts/partLock'
 import { recomputePartVerdict } from '../parts/partVerdict'
 
@@ -14,7 +18,11 @@ type Recorder = AuditActor & { name: string }
 /** Floating-point slack so 264.0 against 254 ± 10 is the pass it is on paper. */
 const EPSILON_UM = 1e-9
 
-export function verificationPassed(referenceNominalUm: number, readingUm: number, toleranceUm: number): boolean {
+export function verificationPassed(
+  referenceNominalUm: number,
+  readingUm: number,
+  toleranceUm: number,
+): boolean {
   return Math.abs(readingUm - referenceNominalUm) <= toleranceUm + EPSILON_UM
 }
 
@@ -60,10 +68,20 @@ export async function recordVerification(
   return inTransaction(async (t) => {
     const instrument = await Instrument.findByPk(instrumentId, { transaction: t })
     if (!instrument) throw notFound(`Instrument #${instrumentId}`)
-    const replay = await InstrumentVerification.findOne({ where: { clientId: body.clientId }, transaction: t })
+    const replay = await InstrumentVerification.findOne({
+      where: { clientId: body.clientId },
+      transaction: t,
+    })
     if (replay) {
-      if (replay.instrumentId !== instrumentId) throw conflict('client_id_reused', 'This clientId already belongs to a check of another instrument')
-      const event = await AuditEvent.findOne({ where: { entityType: 'instrument-verification', entityId: String(replay.id) }, transaction: t })
+      if (replay.instrumentId !== instrumentId)
+        throw conflict(
+          'client_id_reused',
+          'This clientId already belongs to a check of another instrument',
+        )
+      const event = await AuditEvent.findOne({
+        where: { entityType: 'instrument-verification', entityId: String(replay.id) },
+        transaction: t,
+      })
       const after = (event?.after ?? {}) as Partial<VerificationResult>
       return {
         result: {
@@ -98,7 +116,9 @@ export async function recordVerification(
       suspectCount = n
       for (const part of locked) await recomputePartVerdict(part.spec, part, t)
     }
-    const closedLotsAffected = [...new Set(doubt.filter((d) => !openParts.includes(d)).map((d) => d.lot_number))]
+    const closedLotsAffected = [
+      ...new Set(doubt.filter((d) => !openParts.includes(d)).map((d) => d.lot_number)),
+    ]
     const result: VerificationResult = {
       verification: toRow(verification, instrument.serial, actor.name),
       suspectCount,
@@ -109,7 +129,13 @@ export async function recordVerification(
       action: passed ? 'instrument.verification-passed' : 'instrument.verification-failed',
       entityType: 'instrument-verification',
       entityId: verification.id,
-      after: { ...result, verification: undefined, instrumentId, serial: instrument.serial, passed },
+      after: {
+        ...result,
+        verification: undefined,
+        instrumentId,
+        serial: instrument.serial,
+        passed,
+      },
     })
     for (const lotId of new Set(doubt.map((d) => d.lot_id))) {
       await recordAudit(t, actor, {
@@ -134,6 +160,9 @@ export async function listVerifications(instrumentId: number): Promise<Verificat
     { bind: [instrumentId], type: QueryTypes.SELECT },
   )
   const names = new Map(rows.map((r) => [r.id, r.name]))
-  const models = await InstrumentVerification.findAll({ where: { id: rows.map((r) => r.id) }, order: [['verifiedAt', 'DESC']] })
+  const models = await InstrumentVerification.findAll({
+    where: { id: rows.map((r) => r.id) },
+    order: [['verifiedAt', 'DESC']],
+  })
   return models.map((v) => toRow(v, instrument.serial, names.get(v.id) ?? ''))
 }

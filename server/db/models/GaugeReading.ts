@@ -1,4 +1,10 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize'
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+} from 'sequelize'
 import { sequelize } from '../index'
 
 /**
@@ -6,7 +12,10 @@ import { sequelize } from '../index'
  * The hot path (POST readings) writes these with one raw INSERT ... ON CONFLICT; the model serves
  * the seed and the occasional read.
  */
-export class GaugeReading extends Model<InferAttributes<GaugeReading>, InferCreationAttributes<GaugeReading>> {
+export class GaugeReading extends Model<
+  InferAttributes<GaugeReading>,
+  InferCreationAttributes<GaugeReading>
+> {
   declare id: CreationOptional<string>
   declare partId: number
   declare lotId: number

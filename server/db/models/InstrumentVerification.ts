@@ -1,4 +1,10 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize'
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+} from 'sequelize'
 import { sequelize } from '../index'
 
 /** A shift check of a gauge on a reference standard: passed = |reading − nominal| ≤ tolerance. */

@@ -1,4 +1,10 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize'
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+} from 'sequelize'
 import { sequelize } from '../index'
 import type { PartVerdict } from '../../../shared/rules/evaluatePart'
 import type { OverallStatus } from '../../../shared/rules/verdict'

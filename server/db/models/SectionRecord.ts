@@ -1,9 +1,18 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize'
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+} from 'sequelize'
 import { sequelize } from '../index'
 import type { SectionName } from '../../../shared/api/lots'
 
 /** Append-only (the database refuses UPDATE/DELETE): the latest per (part, round, section) is current. */
-export class SectionRecord extends Model<InferAttributes<SectionRecord>, InferCreationAttributes<SectionRecord>> {
+export class SectionRecord extends Model<
+  InferAttributes<SectionRecord>,
+  InferCreationAttributes<SectionRecord>
+> {
   declare id: CreationOptional<number>
   declare partId: number
   declare round: number
