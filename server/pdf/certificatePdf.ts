@@ -6,6 +6,11 @@
  *                                  verification page; cannot be printed inside the file itself)
  *   contentFingerprint(data)     → SHA-256 of the canonical data JSON, printed in every footer
  *
+ *   preloadCertificateFonts()    → parse the fonts ahead of the first certificate (optional)
+ *
+ * Speed: fonts are parsed once per process and their layouts and embedded subsets are memoised
+ * across documents (fonts.ts, layoutCache.ts, subsetCache.ts); none of that changes the bytes.
+ *
  * EN 10204 (TRADE.md §7 [R]): type 2.1 is a declaration of compliance without results, so it
  * prints no thickness numbers, no holiday/cure/adhesion results and no climate; 2.2 and 3.1 do.
  */
@@ -23,6 +28,7 @@ import { drawCureAndAdhesion, drawHoliday, drawParts } from './sections/results'
 import { PAGE } from './theme'
 
 export { certificateFingerprint, contentFingerprint, canonicalJson } from './fingerprint'
+export { preloadCertificateFonts } from './fonts'
 
 function createDocument(data: CertificateData): PDFKit.PDFDocument {
   const issuedAt = issuedAtDate(data.issuedAt)

@@ -50,6 +50,30 @@ describe('EN 10204 type 2.1: a declaration of compliance without results', async
   })
 })
 
+describe('EN 10204 type 2.2: a test report with results', async () => {
+  const text = await readPdfText(await renderCertificatePdf(harrowgateCertificate({ kind: '2.2' })))
+
+  it('prints the results like 3.1, without the 3.1 inspection representative', () => {
+    expect(text.all).toContain('EN 10204 type 2.2')
+    expect(text.all).toMatch(
+      rowPattern([
+        'HFW-VB-001',
+        'Gate valve body DN150 PN16',
+        'H24-7310',
+        '1',
+        '15',
+        '287',
+        '342',
+        '402',
+      ]),
+    )
+    expect(text.all).toContain('No holidays found')
+    expect(text.all).toContain('above dew point')
+    expect(text.all).toContain('Approved by')
+    expect(text.all).not.toContain('authorised inspection representative')
+  })
+})
+
 describe('a 40-part lot', async () => {
   const data = fortyPartCertificate()
   const text = await readPdfText(await renderCertificatePdf(data))
