@@ -1,7 +1,7 @@
 import { QueryTypes, type Transaction } from 'sequelize'
 import type { z } from 'zod'
 import { inTransaction, sequelize } from '../../db'
-import { AuditEvent, Instrument, InstrumentVerification } from '../../db/models'
+import { AuditEvent, Instrument, InstrumentVerification, User } from '../../db/models'
 import { recordAudit, type AuditActor } from '../../audit/audit.service'
 import { conflict, notFound } from '../../lib/httpError'
 import type {
@@ -85,7 +85,12 @@ export async function recordVerification(
       const after = (event?.after ?? {}) as Partial<VerificationResult>
       return {
         result: {
-          verification: toRow(replay, instrument.serial, actor.name),
+          verification: toRow(
+            replay,
+            instrument.serial,
+            (await User.findByPk(replay.verifiedBy, { attributes: ['name'], transaction: t }))
+              ?.name ?? '',
+          ),
           suspectCount: after.suspectCount ?? 0,
           affectedPartIds: after.affectedPartIds ?? [],
           closedLotsAffected: after.closedLotsAffected ?? [],
