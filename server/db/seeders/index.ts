@@ -8,6 +8,8 @@ import { usersSeeder } from './users.seed'
 import { specsSeeder } from './specs.seed'
 import { instrumentsSeeder } from './instruments.seed'
 import { floorHistorySeeder } from './floorHistory.seed'
+import { defectTypesSeeder } from './defectTypes.seed'
+import { reviewHistorySeeder } from './reviewHistory.seed'
 
 export { DEMO_SIGN_INS, type DemoSignIn } from './users.seed'
 export { DEMO_LINES, DEMO_SHIFTS } from './settings.seed'
@@ -24,6 +26,8 @@ export const SEEDERS: Seeder[] = [
   specsSeeder,
   instrumentsSeeder,
   floorHistorySeeder,
+  defectTypesSeeder,
+  reviewHistorySeeder,
 ]
 
 /** Which `once` seeders have run, and when; kept in the settings table. */
