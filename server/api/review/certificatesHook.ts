@@ -11,7 +11,7 @@ export async function markLotCertificatesForReissue(
   t: Transaction,
 ): Promise<number> {
   const [exists] = await sequelize.query<{ present: boolean }>(
-    "SELECT to_regclass('public.certificates') IS NOT NULL AS present",
+    "SELECT to_regclass('certificates') IS NOT NULL AS present",
     { type: QueryTypes.SELECT, transaction: t },
   )
   if (!exists?.present) return 0
