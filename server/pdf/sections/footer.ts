@@ -42,9 +42,11 @@ export function drawFooters(
       .font(FONT.medium)
       .fontSize(SIZE.footer)
       .fillColor(COLOUR.ink)
+      // One line whatever the plant's name: a second would run into the fingerprint.
       .text(`Certificate ${data.number}   ·   ${data.issuer.name}`, left, top + 7, {
-        width: CONTENT_WIDTH_PT - 80,
-        lineBreak: false,
+        width: CONTENT_WIDTH_PT - 90,
+        height: SIZE.footer * 1.4,
+        ellipsis: true,
       })
     doc
       .font(FONT.medium)
