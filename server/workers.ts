@@ -1,4 +1,6 @@
-/** Background workers (the certificate outbox, later) started beside the HTTP server. */
+import { startOutboxWorker } from './mail'
+
+/** Background workers (the certificate mail outbox) started beside the HTTP server. */
 const stops: (() => Promise<void>)[] = []
 
 export function registerWorker(start: () => () => Promise<void>) {
@@ -6,7 +8,8 @@ export function registerWorker(start: () => () => Promise<void>) {
 }
 
 export function startBackgroundWorkers() {
-  // Workers register themselves here as features add them.
+  // Workers register themselves here as features add them. Tests start their own.
+  registerWorker(startOutboxWorker)
 }
 
 export async function stopBackgroundWorkers() {

@@ -16,6 +16,8 @@ import { lotReviewRouter, reviewRouter } from './review/review.router'
 import { nonconformancesRouter } from './nonconformances/nonconformances.router'
 import { defectTypesRouter } from './defect-types/defectTypes.router'
 import { auditRouter } from './audit/audit.router'
+import { certificatesRouter, lotCertificatesRouter } from './certificates/certificates.router'
+import { verifyRouter } from './verify/verify.router'
 
 /** Every feature's router, mounted at its base path by app.ts. Add a feature here. */
 export const apiRouters: { basePath: string; router: Router }[] = [
@@ -38,4 +40,7 @@ export const apiRouters: { basePath: string; router: Router }[] = [
   nonconformancesRouter,
   defectTypesRouter,
   auditRouter,
+  lotCertificatesRouter,
+  certificatesRouter,
+  verifyRouter,
 ]

@@ -68,3 +68,96 @@ export interface CertificateData {
   /** Reissue: the number this certificate replaces. */
   supersedes: string | null
 }
+
+/* Answers of the routes above (added by the certificate feature). */
+
+export const certificateListQuerySchema = z.object({
+  /** Order, lot, part or heat number, or the certificate number; part of it is enough. */
+  q: z.string().trim().max(100).optional(),
+  customerId: z.coerce.number().int().positive().optional(),
+  state: z.enum(['valid', 'superseded', 'revoked']).optional(),
+  limit: z.coerce.number().int().min(1).max(200).default(50),
+  offset: z.coerce.number().int().min(0).default(0),
+})
+export const resendSchema = z.object({
+  /** One recipient's delivery; without it every recipient of the certificate gets it again. */
+  deliveryId: z.coerce.number().int().positive().optional(),
+})
+
+export const CERTIFICATE_STATE_LABELS: Record<CertificateState, string> = {
+  valid: 'Valid',
+  superseded: 'Replaced by a reissue',
+  revoked: 'Withdrawn',
+}
+
+export interface CertificateRow {
+  id: number
+  number: string
+  kind: CertificateKind
+  state: CertificateState
+  issuedAt: string
+  lotId: number
+  lotNumber: string
+  customerId: number
+  customerName: string
+  orderRef: string
+  partNumbers: string[]
+  heatNumbers: string[]
+  /** SHA-256 of the PDF file as issued. */
+  fingerprint: string
+  needsReissue: boolean
+}
+
+export interface DeliveryRow {
+  id: number
+  recipientName: string
+  recipientEmail: string
+  state: DeliveryState
+  /** 'sending' shows as queued: the worker holds it for a moment. */
+  attempts: number
+  lastError: string | null
+  queuedAt: string
+  lastAttemptAt: string | null
+  nextAttemptAt: string | null
+  sentAt: string | null
+}
+
+export interface CertificateDetail extends CertificateRow {
+  /** SHA-256 of the certificate data, printed in the PDF's footer. */
+  contentFingerprint: string
+  verifyCode: string
+  verifyUrl: string
+  issuedBy: string
+  supersedes: { id: number; number: string; reason: string } | null
+  supersededBy: { id: number; number: string; at: string } | null
+  revoked: { at: string; reason: string; byName: string } | null
+  /** Staff only: customers are not shown the plant's mail log. */
+  deliveries: DeliveryRow[] | null
+}
+
+/** A released lot that has no valid certificate yet (the Certificates page's "to issue" list). */
+export interface LotToCertify {
+  lotId: number
+  lotNumber: string
+  customerName: string
+  orderRef: string
+  partCount: number
+  releasedAt: string
+  releasedBy: string
+  /** The lot had a certificate that was withdrawn. */
+  hadRevoked: boolean
+}
+
+/** GET /api/verify/:code — what anyone holding the certificate may learn, and nothing more. */
+export interface VerifyResult {
+  state: CertificateState
+  number: string
+  issuedAt: string
+  lotNumber: string
+  /** SHA-256 of the PDF file (compare with `sha256sum`). */
+  fingerprint: string
+  /** SHA-256 printed in the PDF's footer. */
+  contentFingerprint: string
+  successor: { verifyCode: string; verifyUrl: string } | null
+  revokedAt: string | null
+}

@@ -59,3 +59,14 @@ Lot.hasMany(LotDecision, { foreignKey: 'lotId', as: 'decisions' })
 LotDecision.belongsTo(User, { foreignKey: 'decidedBy', as: 'decider' })
 
 export { DefectType, Nonconformance, NonconformancePart, LotDecision }
+
+// Certificates of conformance and their mail outbox (migration 0005).
+import { Certificate } from './Certificate'
+import { MailOutbox } from './MailOutbox'
+
+Certificate.belongsTo(Lot, { foreignKey: 'lotId', as: 'lot' })
+Certificate.belongsTo(Customer, { foreignKey: 'customerId', as: 'customer' })
+Certificate.hasMany(MailOutbox, { foreignKey: 'certificateId', as: 'deliveries' })
+MailOutbox.belongsTo(Certificate, { foreignKey: 'certificateId', as: 'certificate' })
+
+export { Certificate, MailOutbox }

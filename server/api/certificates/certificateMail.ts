@@ -1,0 +1,70 @@
+/** The certificate e-mail: one outbox row per certificate contact, in the caller's transaction. */
+import { QueryTypes, type Transaction } from 'sequelize'
+import { sequelize } from '../../db'
+import type { CertificateData } from '../../../shared/api/certificates'
+
+export function certificateMailText(
+  data: CertificateData,
+  recipientName: string,
+): { subject: string; text: string } {
+  const subject = `Certificate of conformance ${data.number} — lot ${data.lotNumber}, order ${data.orderRef}`
+  const lines = [
+    `Hello ${recipientName},`,
+    '',
+    `Attached is certificate of conformance ${data.number} (EN 10204 type ${data.kind}) from ${data.issuer.name} ` +
+      `for lot ${data.lotNumber}, your order ${data.orderRef}.`,
+  ]
+  if (data.supersedes)
+    lines.push(`It replaces certificate ${data.supersedes}, which is no longer valid.`)
+  lines.push(
+    '',
+    'Anyone holding the certificate can check that it is genuine and still valid here:',
+    data.verifyUrl,
+    'That page also shows the SHA-256 fingerprint of the PDF file; it matches the attachment.',
+    '',
+    `Sent by Filmtrail for ${data.issuer.name}. Replies to this address are not read; for questions ` +
+      'please contact the plant’s quality office.',
+  )
+  return { subject, text: lines.join('\n') }
+}
+
+interface Contact {
+  id: number
+  name: string
+  email: string
+}
+
+export async function certificateContacts(customerId: number, t: Transaction): Promise<Contact[]> {
+  return sequelize.query<Contact>(
+    `SELECT id, name, email FROM customer_contacts
+      WHERE customer_id = $1 AND receives_certificates AND active ORDER BY id`,
+    { bind: [customerId], type: QueryTypes.SELECT, transaction: t },
+  )
+}
+
+/** Queues the e-mail for each contact; answers how many were queued. */
+export async function queueCertificateMail(
+  certificateId: number,
+  data: CertificateData,
+  contacts: Contact[],
+  t: Transaction,
+): Promise<number> {
+  for (const c of contacts) {
+    const { subject, text } = certificateMailText(data, c.name)
+    await sequelize.query(
+      `INSERT INTO mail_outbox (certificate_id, contact_id, recipient_name, recipient_email, subject, body_text)
+       VALUES ($1, $2, $3, $4, $5, $6)`,
+      { bind: [certificateId, c.id, c.name, c.email, subject, text], transaction: t },
+    )
+  }
+  return contacts.length
+}
+
+/** A withdrawn or replaced certificate is not sent any more: its waiting messages stop here. */
+export async function cancelQueuedMail(certificateId: number, why: string, t: Transaction) {
+  await sequelize.query(
+    `UPDATE mail_outbox SET status = 'failed', last_error = $2, updated_at = now()
+      WHERE certificate_id = $1 AND status = 'queued'`,
+    { bind: [certificateId, why], transaction: t },
+  )
+}
