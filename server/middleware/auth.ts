@@ -20,7 +20,12 @@ passport.use(
       algorithms: ['HS256'],
     },
     (claims: TokenClaims, done: (err: unknown, user?: User | false) => void) => {
-      User.findByPk(Number(claims.sub))
+      // A subject that is no user id (missing, text, beyond the integer column) is a refused
+      // token, not a database error.
+      const userId = Number(claims.sub)
+      if (!/^[1-9]\d{0,9}$/.test(String(claims.sub)) || userId > 2147483647)
+        return done(null, false)
+      User.findByPk(userId)
         .then((user) => {
           // A deactivated user, or a token issued before a password reset, no longer signs in.
           if (!user || !user.active || user.tokenVersion !== claims.tv) return done(null, false)
@@ -56,7 +61,14 @@ export function toSessionUser(user: User): SessionUser {
 export function authenticate(req: Request, res: Response, next: NextFunction) {
   passport.authenticate('jwt', { session: false }, (err: unknown, user: User | false) => {
     if (err) return next(err)
-    if (!user) return next(new HttpError(401, 'unauthenticated', 'Sign in again: your session is missing or has expired'))
+    if (!user)
+      return next(
+        new HttpError(
+          401,
+          'unauthenticated',
+          'Sign in again: your session is missing or has expired',
+        ),
+      )
     req.user = user
     next()
   })(req, res, next)
