@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import type { Role } from './roles'
 
 /**
  * Certificates of conformance. Routes:
@@ -161,3 +162,7 @@ export interface VerifyResult {
   successor: { verifyCode: string; verifyUrl: string } | null
   revokedAt: string | null
 }
+
+/** Who reads certificates: QA, the plant manager, the administrator, and customers (their own). */
+export const CERTIFICATE_STAFF = ['supervisor', 'manager', 'admin'] as const satisfies readonly Role[]
+export const CERTIFICATE_READERS = [...CERTIFICATE_STAFF, 'customer'] as const satisfies readonly Role[]

@@ -1,6 +1,7 @@
 import { createRouter, createWebHistory, type RouteRecordRaw } from 'vue-router'
-import { ADMIN, FLOOR, ROLES, STAFF, type Role } from '@shared/api/roles'
+import { ADMIN, FLOOR, STAFF, type Role } from '@shared/api/roles'
 import { TRENDS_ROLES } from '@shared/api/trends'
+import { CERTIFICATE_STAFF, CERTIFICATE_READERS } from '@shared/api/certificates'
 import { useSessionStore } from '@/stores/session'
 import { ROUTES } from './routeNames'
 import { roleHome } from './navigation'
@@ -25,7 +26,8 @@ const routes: RouteRecordRaw[] = [
     path: '/',
     name: ROUTES.home,
     component: () => import('@/views/HomeView.vue'),
-    meta: { roles: ROLES, title: 'Home' },
+    // A customer's home is the portal (roleHome): the guard sends them there.
+    meta: { roles: STAFF, title: 'Home' },
   },
   {
     path: '/setup',
@@ -128,6 +130,33 @@ const routes: RouteRecordRaw[] = [
     name: ROUTES.trends,
     component: () => import('@/views/trends/TrendsView.vue'),
     meta: { roles: TRENDS_ROLES, title: 'Line health' },
+  },
+  {
+    path: '/certificates',
+    name: ROUTES.certificates,
+    component: () => import('@/views/certificates/CertificatesView.vue'),
+    meta: { roles: CERTIFICATE_STAFF, title: 'Certificates' },
+  },
+  {
+    path: '/certificates/:id(\\d+)',
+    name: ROUTES.certificate,
+    component: () => import('@/views/certificates/CertificateDetailView.vue'),
+    props: (r) => ({ id: Number(r.params.id) }),
+    meta: { roles: CERTIFICATE_READERS, title: 'Certificate' },
+  },
+  {
+    path: '/portal',
+    name: ROUTES.portal,
+    component: () => import('@/views/portal/PortalCertificatesView.vue'),
+    meta: { roles: ['customer'], title: 'Your certificates' },
+  },
+  {
+    // The QR code's target: open to anyone, no sign-in, no menu.
+    path: '/verify/:code',
+    name: ROUTES.verify,
+    component: () => import('@/views/verify/VerifyView.vue'),
+    props: (r) => ({ code: String(r.params.code) }),
+    meta: { public: true, title: 'Certificate check' },
   },
   { path: '/:pathMatch(.*)*', redirect: { name: ROUTES.home } },
 ]

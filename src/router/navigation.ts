@@ -7,6 +7,7 @@
 import type { RouteLocationRaw, Router } from 'vue-router'
 import {
   mdiAccountGroupOutline,
+  mdiCertificateOutline,
   mdiChartTimelineVariant,
   mdiClipboardListOutline,
   mdiCloudUploadOutline,
@@ -42,6 +43,23 @@ export const NAV_GROUPS: NavGroup[] = [
     ],
   },
   {
+    heading: 'Certificates',
+    entries: [
+      {
+        title: 'Certificates',
+        icon: mdiCertificateOutline,
+        route: ROUTES.certificates,
+        hint: 'Issue, send, reissue, withdraw',
+      },
+      {
+        title: 'Your certificates',
+        icon: mdiCertificateOutline,
+        route: ROUTES.portal,
+        hint: 'Find and download',
+      },
+    ],
+  },
+  {
     heading: 'Plant',
     entries: [
       {
@@ -73,7 +91,7 @@ export function navFor(role: Role, router: Router): NavGroup[] {
 }
 
 /** Where a role lands after sign-in or when it opens a page it may not see. */
-export function roleHome(_role: Role): RouteLocationRaw {
-  // Every role shares one home route today; its content depends on the role (HomeView.vue).
-  return { name: ROUTES.home }
+export function roleHome(role: Role): RouteLocationRaw {
+  // A customer's home is their certificates; every staff role shares one home (HomeView.vue).
+  return role === 'customer' ? { name: ROUTES.portal } : { name: ROUTES.home }
 }

@@ -18,6 +18,11 @@ export const ROUTES = {
   floorQueue: 'floor-queue',
   // Line health (trends) for plant managers.
   trends: 'trends',
+  // Certificates of conformance: staff list and page, the customer portal, public verification.
+  certificates: 'certificates',
+  certificate: 'certificate',
+  portal: 'portal',
+  verify: 'verify',
 } as const
 
 export type RouteName = (typeof ROUTES)[keyof typeof ROUTES]

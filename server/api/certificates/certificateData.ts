@@ -85,7 +85,12 @@ export function buildCertificateData(
   const scrapped = src.parts.length - shipped.length
   const verdicts = shipped.flatMap((p) => (p.verdict ? [p.verdict] : [])) as PartVerdict[]
   const parts = shipped.map((p) => {
-    const input = assemblePartInput(spec.thickness.rule, p.round, p.sections ?? [], p.readings ?? [])
+    const input = assemblePartInput(
+      spec.thickness.rule,
+      p.round,
+      p.sections ?? [],
+      p.readings ?? [],
+    )
     return {
       partNumber: p.part_number,
       description: p.description,

@@ -11,7 +11,12 @@ export function certificatePrefix(plantName: string, at: Date): string {
   const name = plantName.split(/\s[—–-]\s/)[0] ?? plantName
   const initials = name
     .split(/\s+/)
-    .map((w) => w.replace(/[^A-Za-z]/g, '').charAt(0).toUpperCase())
+    .map((w) =>
+      w
+        .replace(/[^A-Za-z]/g, '')
+        .charAt(0)
+        .toUpperCase(),
+    )
     .join('')
     .slice(0, 4)
   return `${initials || 'FT'}-C-${String(at.getUTCFullYear() % 100).padStart(2, '0')}`

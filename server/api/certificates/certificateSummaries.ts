@@ -27,12 +27,16 @@ type Numbers = CriterionResult['numbers']
 /** The numbers of one criterion from every part whose verdict has it passing. */
 export function passedNumbers(verdicts: PartVerdict[], criterion: CriterionName): Numbers[] {
   return verdicts.flatMap((v) =>
-    v.criteria.filter((c) => c.criterion === criterion && c.status === 'pass').map((c) => c.numbers),
+    v.criteria
+      .filter((c) => c.criterion === criterion && c.status === 'pass')
+      .map((c) => c.numbers),
   )
 }
 
 function values(rows: Numbers[], key: string): number[] {
-  return rows.map((r) => r[key]).filter((v): v is number => typeof v === 'number' && Number.isFinite(v))
+  return rows
+    .map((r) => r[key])
+    .filter((v): v is number => typeof v === 'number' && Number.isFinite(v))
 }
 
 const grouped = (v: number, decimals: number) =>
@@ -43,7 +47,9 @@ export function range(vs: number[], decimals: number): string | null {
   if (vs.length === 0) return null
   const lo = grouped(Math.min(...vs), decimals)
   const hi = grouped(Math.max(...vs), decimals)
-  return lo === hi ? lo : `${lo}–${hi}`
+  if (lo === hi) return lo
+  // "-0.8–1.1" reads as a subtraction: below zero the range is written with "to".
+  return Math.min(...vs) < 0 ? `${lo} to ${hi}` : `${lo}–${hi}`
 }
 
 function thicknessRange(vs: number[], unit: ThicknessUnit): string | null {
@@ -97,7 +103,10 @@ export function surfacePrepSummary(
   }
 }
 
-export function climateSummary(spec: SpecContent, verdicts: PartVerdict[]): CertificateData['climate'] {
+export function climateSummary(
+  spec: SpecContent,
+  verdicts: PartVerdict[],
+): CertificateData['climate'] {
   const rows = passedNumbers(verdicts, 'climate')
   if (rows.length === 0) return null
   const margin = range(values(rows, 'marginC'), 1)
@@ -112,14 +121,19 @@ export function climateSummary(spec: SpecContent, verdicts: PartVerdict[]): Cert
   }
 }
 
-export function holidaySummary(spec: SpecContent, verdicts: PartVerdict[]): CertificateData['holiday'] {
+export function holidaySummary(
+  spec: SpecContent,
+  verdicts: PartVerdict[],
+): CertificateData['holiday'] {
   if (!spec.holiday.required) return null
   const rows = passedNumbers(verdicts, 'holiday')
   if (rows.length === 0) return null
   const methods = new Set(rows.map((r) => r.recordedMethod))
   const method = [...methods]
     .map((m) =>
-      m === 'low-voltage' ? 'Low-voltage wet sponge (ASTM D5162 method A)' : 'High-voltage spark (ASTM D5162 method B)',
+      m === 'low-voltage'
+        ? 'Low-voltage wet sponge (ASTM D5162 method A)'
+        : 'High-voltage spark (ASTM D5162 method B)',
     )
     .join('; ')
   const used = range(values(rows, 'voltageUsedV'), 0)
@@ -163,7 +177,9 @@ export function adhesionLines(spec: SpecContent, verdicts: PartVerdict[]): strin
   const a = spec.adhesion
   const lines: string[] = []
   if (a.crossCut && rows.length) {
-    const grades = [...new Set(rows.map((r) => r.crossCutGrade).filter((g) => typeof g === 'string'))]
+    const grades = [
+      ...new Set(rows.map((r) => r.crossCutGrade).filter((g) => typeof g === 'string')),
+    ]
     lines.push(
       `ASTM D3359 method ${a.crossCut.method}: ${grades.join(', ') || '—'} (at least ${a.crossCut.minGrade}${a.crossCut.method})`,
     )

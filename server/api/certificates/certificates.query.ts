@@ -174,7 +174,11 @@ export async function getCertificateDetail(user: User, id: number): Promise<Cert
     supersedes:
       r.supersedes_id === null
         ? null
-        : { id: r.supersedes_id, number: r.supersedes_number ?? '', reason: r.reissue_reason ?? '' },
+        : {
+            id: r.supersedes_id,
+            number: r.supersedes_number ?? '',
+            reason: r.reissue_reason ?? '',
+          },
     supersededBy:
       r.superseded_by_id === null
         ? null

@@ -1,7 +1,9 @@
 import { z } from 'zod'
 import { idParams, secureRouter } from '../secureRouter'
-import { QA, type Role } from '../../../shared/api/roles'
+import { QA } from '../../../shared/api/roles'
 import {
+  CERTIFICATE_READERS,
+  CERTIFICATE_STAFF,
   certificateListQuerySchema,
   issueCertificateSchema,
   reasonSchema,
@@ -16,10 +18,6 @@ import {
 } from './certificates.service'
 import { getCertificateDetail, getCertificatePdf, listCertificates } from './certificates.query'
 import { lotsToCertify } from './lotsToCertify'
-
-/** Who reads certificates: QA, the plant manager, the administrator, and customers (their own). */
-export const CERTIFICATE_READERS: Role[] = ['supervisor', 'manager', 'admin', 'customer']
-const STAFF_READERS: Role[] = ['supervisor', 'manager', 'admin']
 
 /** POST /api/lots/:id/certificates lives beside the lot's other review routes. */
 const lots = secureRouter('/api/lots')
@@ -41,7 +39,10 @@ r.get(
   {
     roles: CERTIFICATE_READERS,
     query: certificateListQuerySchema.extend({
-      needsReissue: z.enum(['true', 'false']).optional().transform((v) => v === 'true'),
+      needsReissue: z
+        .enum(['true', 'false'])
+        .optional()
+        .transform((v) => v === 'true'),
     }),
   },
   async ({ user, query, res }) => {
@@ -54,7 +55,7 @@ r.get(
 r.get(
   '/lots-to-issue',
   {
-    roles: STAFF_READERS,
+    roles: CERTIFICATE_STAFF,
     query: z.object({
       q: z.string().trim().max(100).optional(),
       limit: z.coerce.number().int().min(1).max(200).default(50),
@@ -67,14 +68,18 @@ r.get('/:id', { roles: CERTIFICATE_READERS, params: idParams }, ({ user, params 
   getCertificateDetail(user, params.id),
 )
 
-r.get('/:id/pdf', { roles: CERTIFICATE_READERS, params: idParams }, async ({ user, params, res }) => {
-  const { number, pdf, sha256 } = await getCertificatePdf(user, params.id)
-  res.setHeader('Content-Type', 'application/pdf')
-  res.setHeader('Content-Disposition', `attachment; filename="certificate-${number}.pdf"`)
-  res.setHeader('X-Content-SHA256', sha256)
-  res.setHeader('Cache-Control', 'private, no-store')
-  res.end(pdf)
-})
+r.get(
+  '/:id/pdf',
+  { roles: CERTIFICATE_READERS, params: idParams },
+  async ({ user, params, res }) => {
+    const { number, pdf, sha256 } = await getCertificatePdf(user, params.id)
+    res.setHeader('Content-Type', 'application/pdf')
+    res.setHeader('Content-Disposition', `attachment; filename="certificate-${number}.pdf"`)
+    res.setHeader('X-Content-SHA256', sha256)
+    res.setHeader('Cache-Control', 'private, no-store')
+    res.end(pdf)
+  },
+)
 
 r.post(
   '/:id/reissue',
@@ -89,7 +94,8 @@ r.post(
 r.post(
   '/:id/revoke',
   { roles: QA, params: idParams, body: reasonSchema },
-  async ({ user, params, body }) => getCertificateDetail(user, await revokeCertificate(user, params.id, body.reason)),
+  async ({ user, params, body }) =>
+    getCertificateDetail(user, await revokeCertificate(user, params.id, body.reason)),
 )
 
 r.post(

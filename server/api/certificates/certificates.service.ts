@@ -28,20 +28,24 @@ interface Predecessor {
   reason: string
 }
 
-/** Builds, renders and stores one certificate for a locked, released lot; queues its e-mail. */
-async function createCertificate(
+/**
+ * Builds, renders and stores one certificate for a locked, released lot; queues its e-mail.
+ * `at` is the issue time (the demo seed dates its history; everyone else issues now).
+ */
+export async function createCertificate(
   actor: AuditActor,
   lot: Lot,
   kind: CertificateKind,
   t: Transaction,
   predecessor: Predecessor | null,
+  at: Date = new Date(),
 ): Promise<Certificate> {
   const source = await loadCertificateSource(lot.id, t)
   if (!source) throw notFound(`Lot #${lot.id}`)
   const plant = await getPlantSettings(t)
   const spec = await specContentFor(lot.specId, lot.specVersion, t)
   // Whole seconds: the PDF's CreationDate holds no milliseconds, so the stored time matches it.
-  const issuedAt = new Date(Math.floor(Date.now() / 1000) * 1000)
+  const issuedAt = new Date(Math.floor(at.getTime() / 1000) * 1000)
   const number = await nextCertificateNumber(plant.plantName, issuedAt, t)
   const verifyCode = newVerifyCode()
   const data = buildCertificateData(source, spec, plant, {
@@ -95,7 +99,9 @@ async function createCertificate(
     entityType: 'certificate',
     entityId: cert.id,
     lotId: lot.id,
-    before: predecessor ? { certificateId: predecessor.id, number: predecessor.number, state: 'valid' } : null,
+    before: predecessor
+      ? { certificateId: predecessor.id, number: predecessor.number, state: 'valid' }
+      : null,
     after: {
       number,
       kind,
@@ -208,7 +214,12 @@ export async function resendCertificate(actor: AuditActor, id: number, deliveryI
   return inTransaction(async (t) => {
     const cert = await lockCertificate(id, t)
     requireValid(cert, 'sent')
-    const rows = await sequelize.query<{ id: string; status: string; contact_id: number | null; recipient_email: string }>(
+    const rows = await sequelize.query<{
+      id: string
+      status: string
+      contact_id: number | null
+      recipient_email: string
+    }>(
       `SELECT DISTINCT ON (lower(recipient_email)) id, status, contact_id, recipient_email
          FROM mail_outbox WHERE certificate_id = $1 ORDER BY lower(recipient_email), id DESC`,
       { bind: [cert.id], type: QueryTypes.SELECT, transaction: t },

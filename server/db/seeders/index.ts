@@ -10,6 +10,7 @@ import { instrumentsSeeder } from './instruments.seed'
 import { floorHistorySeeder } from './floorHistory.seed'
 import { defectTypesSeeder } from './defectTypes.seed'
 import { reviewHistorySeeder } from './reviewHistory.seed'
+import { certificatesSeeder } from './certificates.seed'
 
 export { DEMO_SIGN_INS, type DemoSignIn } from './users.seed'
 export { DEMO_LINES, DEMO_SHIFTS } from './settings.seed'
@@ -28,6 +29,7 @@ export const SEEDERS: Seeder[] = [
   floorHistorySeeder,
   defectTypesSeeder,
   reviewHistorySeeder,
+  certificatesSeeder,
 ]
 
 /** Which `once` seeders have run, and when; kept in the settings table. */
