@@ -116,15 +116,12 @@ describe('password policy, with a message that says what to do', () => {
   })
 
   it(`(control) ${PASSWORD_MIN_LENGTH} characters with letters and a digit are accepted`, async () => {
-    const res = await request(app)
-      .post('/api/users')
-      .set('Authorization', admin)
-      .send({
-        email: 'ok@policy.example',
-        name: 'Policy Ok',
-        role: 'operator',
-        password: 'abcdefghi1',
-      })
+    const res = await request(app).post('/api/users').set('Authorization', admin).send({
+      email: 'ok@policy.example',
+      name: 'Policy Ok',
+      role: 'operator',
+      password: 'abcdefghi1',
+    })
     expect(res.status).toBe(201)
     expect(res.body).not.toHaveProperty('passwordHash')
     expect(JSON.stringify(res.body)).not.toContain('abcdefghi1')
