@@ -45,8 +45,16 @@ export function usePart(partId: number) {
       part.value = response
       return
     }
-    const withVerdict = response as Partial<ReadingsBatchResult & DiscardResult> | null
-    if (part.value && withVerdict?.verdict) part.value = { ...part.value, verdict: withVerdict.verdict }
+    const r = response as Partial<ReadingsBatchResult & DiscardResult> | null
+    const p = part.value
+    if (p && r) {
+      // Merge the stored rows at once: the queue has already let go of them, and a gap until the
+      // re-read would send the next Enter back to a slot that is in fact filled.
+      const rows = [...(r.readings ?? []), ...(r.reading ? [r.reading] : [])]
+      const byId = new Map(p.readings.map((x) => [x.id, x]))
+      for (const row of rows) byId.set(row.id, row)
+      part.value = { ...p, readings: [...byId.values()], verdict: r.verdict ?? p.verdict }
+    }
     if (entry.write.kind === 'verification') void loadInstruments.run()
     reloadSoon()
   }
