@@ -7,6 +7,7 @@ import { env } from './config/env'
 import { logger } from './lib/logger'
 import { apiRouters } from './api'
 import { errorHandler, notFoundHandler } from './middleware/errorHandler'
+import { mountBenchBareRoute } from './benchBareRoute'
 
 /** Builds the Express app (no listen): API under /api, the built client for everything else. */
 export function createApp() {
@@ -21,6 +22,8 @@ export function createApp() {
           'img-src': ["'self'", 'data:', 'blob:'],
           'style-src': ["'self'", "'unsafe-inline'"],
           'script-src': ["'self'"],
+          // Fonts are bundled from npm (@fontsource): helmet's default would allow any https: host.
+          'font-src': ["'self'", 'data:'],
           'upgrade-insecure-requests': null,
         },
       },
@@ -30,6 +33,8 @@ export function createApp() {
   )
   app.use(pinoHttp({ logger, autoLogging: env.NODE_ENV !== 'test' }))
   app.use('/api', express.json({ limit: '2mb' }))
+  // BENCHMARK ONLY: the bare yardstick route of npm run bench, never mounted otherwise.
+  if (process.env.BENCH_BARE_ROUTE === '1') mountBenchBareRoute(app)
   for (const { basePath, router } of apiRouters) app.use(basePath, router)
   app.use('/api', notFoundHandler)
 
