@@ -31,7 +31,8 @@ export type VerificationBody = z.input<typeof verificationSchema>
 
 function queryString(q: Record<string, unknown>): string {
   const p = new URLSearchParams()
-  for (const [k, v] of Object.entries(q)) if (v !== undefined && v !== null && v !== '') p.set(k, String(v))
+  for (const [k, v] of Object.entries(q))
+    if (v !== undefined && v !== null && v !== '') p.set(k, String(v))
   const s = p.toString()
   return s ? `?${s}` : ''
 }
@@ -50,11 +51,29 @@ export const floorApi = {
 export type FloorWrite =
   | { kind: 'open-lot'; body: CreateLotBody }
   | { kind: 'add-part'; lotId: number; body: PartBody }
-  | { kind: 'section'; partId: number; section: SectionName; body: { clientId: string; instrumentId: number | null; data: unknown } }
+  | {
+      kind: 'section'
+      partId: number
+      section: SectionName
+      body: { clientId: string; instrumentId: number | null; data: unknown }
+    }
   | { kind: 'readings'; partId: number; body: { readings: ReadingBody[] } }
-  | { kind: 'discard-reading'; partId: number; readingId: string; body: z.input<typeof discardReadingSchema> }
+  | {
+      kind: 'discard-reading'
+      partId: number
+      readingId: string
+      body: z.input<typeof discardReadingSchema>
+    }
   | { kind: 'verification'; partId: number | null; instrumentId: number; body: VerificationBody }
-  | { kind: 'photo'; partId: number | null; lotId: number; clientId: string; caption: string; file: Blob; fileName: string }
+  | {
+      kind: 'photo'
+      partId: number | null
+      lotId: number
+      clientId: string
+      caption: string
+      file: Blob
+      fileName: string
+    }
 
 function target(w: FloorWrite): { method: 'POST' | 'PUT'; path: string } {
   switch (w.kind) {
@@ -80,7 +99,13 @@ function target(w: FloorWrite): { method: 'POST' | 'PUT'; path: string } {
 /** Long enough for a photo over weak Wi-Fi, short enough that a hung request does not stall the queue. */
 export const SEND_TIMEOUT_MS = 20_000
 
-async function authorisedFetch(method: string, path: string, body: BodyInit | undefined, json: boolean, timeoutMs: number) {
+async function authorisedFetch(
+  method: string,
+  path: string,
+  body: BodyInit | undefined,
+  json: boolean,
+  timeoutMs: number,
+) {
   const token = useSessionStore().token
   const headers: Record<string, string> = { Accept: 'application/json' }
   if (json) headers['Content-Type'] = 'application/json'
@@ -90,7 +115,11 @@ async function authorisedFetch(method: string, path: string, body: BodyInit | un
   try {
     return await fetch(path, { method, headers, body, signal: controller.signal })
   } catch {
-    throw new ApiError(0, 'network', 'The server did not answer. The record is kept on this tablet.')
+    throw new ApiError(
+      0,
+      'network',
+      'The server did not answer. The record is kept on this tablet.',
+    )
   } finally {
     clearTimeout(timer)
   }
@@ -104,7 +133,12 @@ async function errorFrom(res: Response): Promise<ApiError> {
     body = null
   }
   const e = body?.error
-  return new ApiError(res.status, e?.code ?? 'http_error', e?.message ?? `The server answered ${res.status}`, e?.details)
+  return new ApiError(
+    res.status,
+    e?.code ?? 'http_error',
+    e?.message ?? `The server answered ${res.status}`,
+    e?.details,
+  )
 }
 
 /** Sends one write; resolves with the server's JSON answer, rejects with an ApiError (status 0: no answer). */
@@ -131,13 +165,17 @@ export async function sendWrite(w: FloorWrite, timeoutMs = SEND_TIMEOUT_MS): Pro
 /** The clientId a write is stored under on the server (and kept under on the tablet). */
 export function writeClientId(w: FloorWrite): string | null {
   if (w.kind === 'photo') return w.clientId
-  if (w.kind === 'readings') return w.body.readings.length === 1 ? w.body.readings[0]!.clientId : null
+  if (w.kind === 'readings')
+    return w.body.readings.length === 1 ? w.body.readings[0]!.clientId : null
   if (w.kind === 'discard-reading') return null
   return w.body.clientId
 }
 
 /** Image bytes with the bearer token (an <img src> cannot send it). */
-export async function fetchPhotoBlob(photoId: number, size: 'thumb' | 'full' = 'thumb'): Promise<Blob> {
+export async function fetchPhotoBlob(
+  photoId: number,
+  size: 'thumb' | 'full' = 'thumb',
+): Promise<Blob> {
   const path = size === 'thumb' ? `/api/photos/${photoId}/thumb` : `/api/photos/${photoId}`
   const res = await authorisedFetch('GET', path, undefined, false, SEND_TIMEOUT_MS)
   if (!res.ok) throw await errorFrom(res)

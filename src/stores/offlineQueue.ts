@@ -3,7 +3,11 @@ import { defineStore } from 'pinia'
 import { api, toApiError, type ApiError } from '@/services/api'
 import { sendWrite, writeClientId, type FloorWrite } from '@/services/floorApi'
 import { useSessionStore } from './session'
-import { openQueueStorage, type QueuedWrite, type QueueStorage } from '@/composables/floor/queueStorage'
+import {
+  openQueueStorage,
+  type QueuedWrite,
+  type QueueStorage,
+} from '@/composables/floor/queueStorage'
 
 /**
  * No lost work. Every write from the line is kept on the tablet (IndexedDB) the moment the
@@ -14,9 +18,7 @@ import { openQueueStorage, type QueuedWrite, type QueueStorage } from '@/composa
  * with the server's message until the operator discards it or sends it again.
  */
 export type SubmitOutcome =
-  | { kind: 'stored'; response: unknown }
-  | { kind: 'waiting' }
-  | { kind: 'refused'; error: ApiError }
+  { kind: 'stored'; response: unknown } | { kind: 'waiting' } | { kind: 'refused'; error: ApiError }
 
 export interface SubmitOptions {
   label: string
@@ -55,7 +57,10 @@ export const useOfflineQueueStore = defineStore('offlineQueue', () => {
   let storage: QueueStorage | null = null
   let started: Promise<void> | null = null
   let seqCounter = 0
-  const firstAttempt = new Map<string, { interactive: boolean; resolve: (o: SubmitOutcome) => void }>()
+  const firstAttempt = new Map<
+    string,
+    { interactive: boolean; resolve: (o: SubmitOutcome) => void }
+  >()
   const listeners = new Set<StoredListener>()
 
   const mine = computed(() => entries.value.filter((e) => e.userId === session.user?.id))
@@ -67,7 +72,9 @@ export const useOfflineQueueStore = defineStore('offlineQueue', () => {
 
   function replace(next: QueuedWrite) {
     entries.value = entries.value.map((e) => (e.key === next.key ? next : e))
-    void storage?.put(next).catch(() => (lastError.value = 'Could not save to this tablet’s storage.'))
+    void storage
+      ?.put(next)
+      .catch(() => (lastError.value = 'Could not save to this tablet’s storage.'))
   }
   function drop(key: string) {
     entries.value = entries.value.filter((e) => e.key !== key)
@@ -79,8 +86,13 @@ export const useOfflineQueueStore = defineStore('offlineQueue', () => {
       storage = await openQueueStorage()
       persistent.value = storage.persistent
       // A write caught mid-send when the tab closed is sent again; its clientId keeps it single.
-      const loaded = (await storage.all()).map((e) => (e.state === 'sending' ? { ...e, state: 'waiting' as const } : e))
-      entries.value = [...loaded, ...entries.value.filter((e) => !loaded.some((l) => l.key === e.key))]
+      const loaded = (await storage.all()).map((e) =>
+        e.state === 'sending' ? { ...e, state: 'waiting' as const } : e,
+      )
+      entries.value = [
+        ...loaded,
+        ...entries.value.filter((e) => !loaded.some((l) => l.key === e.key)),
+      ]
       seqCounter = Math.max(0, ...entries.value.map((e) => e.seq))
       ready.value = true
       if (typeof window !== 'undefined') {
@@ -120,9 +132,12 @@ export const useOfflineQueueStore = defineStore('offlineQueue', () => {
     try {
       await storage?.put(entry)
     } catch {
-      lastError.value = 'This tablet could not keep the record in its storage; it stays in memory until sent.'
+      lastError.value =
+        'This tablet could not keep the record in its storage; it stays in memory until sent.'
     }
-    const outcome = new Promise<SubmitOutcome>((resolve) => firstAttempt.set(entry.key, { interactive: !!opts.interactive, resolve }))
+    const outcome = new Promise<SubmitOutcome>((resolve) =>
+      firstAttempt.set(entry.key, { interactive: !!opts.interactive, resolve }),
+    )
     void flush()
     return outcome
   }
@@ -180,7 +195,12 @@ export const useOfflineQueueStore = defineStore('offlineQueue', () => {
         }
         if (isTransient(error)) {
           if (error.status === 0) online.value = false
-          replace({ ...current, state: 'waiting', attempts, nextAttemptAt: Date.now() + backoffMs(attempts) })
+          replace({
+            ...current,
+            state: 'waiting',
+            attempts,
+            nextAttemptAt: Date.now() + backoffMs(attempts),
+          })
           return
         }
         const first = firstAttempt.get(current.key)
@@ -203,7 +223,8 @@ export const useOfflineQueueStore = defineStore('offlineQueue', () => {
 
   /** The connection came back (or the operator asked): forget the backoff and send now. */
   function retryAllNow() {
-    for (const e of entries.value) if (e.state === 'waiting' && e.nextAttemptAt > 0) replace({ ...e, nextAttemptAt: 0 })
+    for (const e of entries.value)
+      if (e.state === 'waiting' && e.nextAttemptAt > 0) replace({ ...e, nextAttemptAt: 0 })
     void flush()
   }
   /** A refused write the operator wants sent again (the lot came off hold, the gauge was recalibrated). */

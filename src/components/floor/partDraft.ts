@@ -1,6 +1,12 @@
 import type { PartDraft } from './FloorPartFields.vue'
 
-export const emptyPart = (): PartDraft => ({ partNumber: '', description: '', heatNumber: '', quantity: 1, coatedAreaM2: null })
+export const emptyPart = (): PartDraft => ({
+  partNumber: '',
+  description: '',
+  heatNumber: '',
+  quantity: 1,
+  coatedAreaM2: null,
+})
 
 /** The API body of a part, with the clientId made now (on save). */
 export function partBody(p: PartDraft) {

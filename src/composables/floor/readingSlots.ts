@@ -56,9 +56,18 @@ export function pa2Grid(readings: readonly GridReading[], areasRequired: number)
     for (let s = 1; s <= spotCount; s++) {
       const rs = inArea.filter((r) => r.spotNo === s)
       const goodCount = rs.filter(isGood).length
-      spots.push({ spotNo: s, readings: rs, goodCount, complete: goodCount >= PA2_MIN_READINGS_PER_SPOT })
+      spots.push({
+        spotNo: s,
+        readings: rs,
+        goodCount,
+        complete: goodCount >= PA2_MIN_READINGS_PER_SPOT,
+      })
     }
-    areas.push({ areaNo: a, spots, complete: spots.slice(0, PA2_SPOTS_PER_AREA).every((s) => s.complete) })
+    areas.push({
+      areaNo: a,
+      spots,
+      complete: spots.slice(0, PA2_SPOTS_PER_AREA).every((s) => s.complete),
+    })
   }
   return areas
 }
@@ -67,14 +76,21 @@ export function pa2Grid(readings: readonly GridReading[], areasRequired: number)
  * Where Enter puts the next reading. The chosen spot keeps the focus until it has its three good
  * readings; then the first open spot of the plan, area by area. null when the plan is full.
  */
-export function nextPa2Slot(grid: readonly GridArea[], areasRequired: number, chosen?: { areaNo: number; spotNo: number } | null): Slot | null {
+export function nextPa2Slot(
+  grid: readonly GridArea[],
+  areasRequired: number,
+  chosen?: { areaNo: number; spotNo: number } | null,
+): Slot | null {
   if (chosen) {
-    const spot = grid.find((a) => a.areaNo === chosen.areaNo)?.spots.find((s) => s.spotNo === chosen.spotNo)
+    const spot = grid
+      .find((a) => a.areaNo === chosen.areaNo)
+      ?.spots.find((s) => s.spotNo === chosen.spotNo)
     if (spot && !spot.complete) return { ...chosen, readingNo: spot.goodCount + 1 }
   }
   for (const area of grid.slice(0, Math.max(areasRequired, 1))) {
     for (const spot of area.spots.slice(0, PA2_SPOTS_PER_AREA)) {
-      if (!spot.complete) return { areaNo: area.areaNo, spotNo: spot.spotNo, readingNo: spot.goodCount + 1 }
+      if (!spot.complete)
+        return { areaNo: area.areaNo, spotNo: spot.spotNo, readingNo: spot.goodCount + 1 }
     }
   }
   return null

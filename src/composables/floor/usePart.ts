@@ -13,7 +13,9 @@ import { usePartLive } from './usePartLive'
 import type { QueuedWrite } from './queueStorage'
 
 function isPartDetail(v: unknown): v is PartDetail {
-  return !!v && typeof v === 'object' && Array.isArray((v as PartDetail).readings) && 'sections' in v
+  return (
+    !!v && typeof v === 'object' && Array.isArray((v as PartDetail).readings) && 'sections' in v
+  )
 }
 
 export function usePart(partId: number) {
@@ -24,7 +26,11 @@ export function usePart(partId: number) {
   const pending = queue.forPart(partId)
   const live = usePartLive(part, pending, instruments)
 
-  const { loading, error, run: reload } = useAsync(async () => {
+  const {
+    loading,
+    error,
+    run: reload,
+  } = useAsync(async () => {
     part.value = await floorApi.part(partId)
   })
   const loadInstruments = useAsync(async () => {
@@ -81,10 +87,20 @@ export function usePart(partId: number) {
   const lotId = computed(() => part.value?.lotId ?? null)
 
   function submit(write: FloorWrite, what: string, interactive = true): Promise<SubmitOutcome> {
-    return queue.submit(write, { label: `${what} · ${label.value}`, partId, lotId: lotId.value, interactive })
+    return queue.submit(write, {
+      label: `${what} · ${label.value}`,
+      partId,
+      lotId: lotId.value,
+      interactive,
+    })
   }
 
-  async function saveSection(section: SectionName, instrumentId: number | null, data: unknown, what: string) {
+  async function saveSection(
+    section: SectionName,
+    instrumentId: number | null,
+    data: unknown,
+    what: string,
+  ) {
     const body = { clientId: crypto.randomUUID(), instrumentId, data }
     const outcome = await submit({ kind: 'section', partId, section, body }, what)
     // Saved or waiting: the queue holds it now, so the draft is done. Refused: keep what was typed.
@@ -92,12 +108,18 @@ export function usePart(partId: number) {
     return outcome
   }
 
-  function saveReading(r: { areaNo: number; spotNo: number; thicknessUm: number; instrumentId: number }, what: string) {
+  function saveReading(
+    r: { areaNo: number; spotNo: number; thicknessUm: number; instrumentId: number },
+    what: string,
+  ) {
     const reading = { clientId: crypto.randomUUID(), takenAt: new Date().toISOString(), ...r }
     return submit({ kind: 'readings', partId, body: { readings: [reading] } }, what)
   }
 
-  function saveReadings(readings: { areaNo: number; spotNo: number; thicknessUm: number; instrumentId: number }[], what: string) {
+  function saveReadings(
+    readings: { areaNo: number; spotNo: number; thicknessUm: number; instrumentId: number }[],
+    what: string,
+  ) {
     const rows = readings.map((r) => ({ clientId: crypto.randomUUID(), ...r }))
     return submit({ kind: 'readings', partId, body: { readings: rows } }, what)
   }
@@ -106,15 +128,32 @@ export function usePart(partId: number) {
     return submit({ kind: 'discard-reading', partId, readingId, body: { reason } }, what, false)
   }
 
-  function verifyInstrument(instrumentId: number, body: Omit<VerificationBody, 'clientId'>, what: string) {
+  function verifyInstrument(
+    instrumentId: number,
+    body: Omit<VerificationBody, 'clientId'>,
+    what: string,
+  ) {
     return queue.submit(
-      { kind: 'verification', partId, instrumentId, body: { clientId: crypto.randomUUID(), ...body } },
+      {
+        kind: 'verification',
+        partId,
+        instrumentId,
+        body: { clientId: crypto.randomUUID(), ...body },
+      },
       { label: what, partId, lotId: lotId.value, interactive: true },
     )
   }
 
   function uploadPhoto(file: Blob, fileName: string, caption: string) {
-    const write: FloorWrite = { kind: 'photo', partId, lotId: lotId.value ?? 0, clientId: crypto.randomUUID(), caption, file, fileName }
+    const write: FloorWrite = {
+      kind: 'photo',
+      partId,
+      lotId: lotId.value ?? 0,
+      clientId: crypto.randomUUID(),
+      caption,
+      file,
+      fileName,
+    }
     return submit(write, `Photo ${caption ? `“${caption}”` : fileName}`)
   }
 

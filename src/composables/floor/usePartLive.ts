@@ -37,7 +37,12 @@ export function usePartLive(
   const readingDraft = ref<ReadingDraft | null>(null)
 
   const discardsWaiting = computed(
-    () => new Set(pending.value.flatMap((e) => (e.write.kind === 'discard-reading' ? [e.write.readingId] : []))),
+    () =>
+      new Set(
+        pending.value.flatMap((e) =>
+          e.write.kind === 'discard-reading' ? [e.write.readingId] : [],
+        ),
+      ),
   )
 
   /** Every reading of the current round for the grid: stored first, then waiting and refused ones. */
@@ -82,11 +87,17 @@ export function usePartLive(
   const sectionRows = computed<SectionRowInput[]>(() => {
     const p = part.value
     if (!p) return []
-    const rows: SectionRowInput[] = Object.values(p.sections).map((s) => ({ section: s!.section, round: p.round, data: s!.data }))
+    const rows: SectionRowInput[] = Object.values(p.sections).map((s) => ({
+      section: s!.section,
+      round: p.round,
+      data: s!.data,
+    }))
     for (const e of pending.value) {
-      if (e.write.kind === 'section' && e.state !== 'refused') rows.push({ section: e.write.section, round: p.round, data: e.write.body.data })
+      if (e.write.kind === 'section' && e.state !== 'refused')
+        rows.push({ section: e.write.section, round: p.round, data: e.write.body.data })
     }
-    for (const [section, d] of Object.entries(drafts)) rows.push({ section: section as SectionName, round: p.round, data: d!.data })
+    for (const [section, d] of Object.entries(drafts))
+      rows.push({ section: section as SectionName, round: p.round, data: d!.data })
     return rows
   })
 
@@ -94,7 +105,9 @@ export function usePartLive(
   function sectionInstrumentId(section: SectionName): number | null {
     const d = drafts[section]
     if (d) return d.instrumentId
-    const waiting = [...pending.value].reverse().find((e) => e.write.kind === 'section' && e.write.section === section)
+    const waiting = [...pending.value]
+      .reverse()
+      .find((e) => e.write.kind === 'section' && e.write.section === section)
     if (waiting?.write.kind === 'section') return waiting.write.body.instrumentId
     const stored = part.value?.sections[section]?.instrumentId ?? null
     if (stored !== null || section !== 'thickness-gauge') return stored
@@ -108,7 +121,9 @@ export function usePartLive(
   const readingRows = computed<ReadingRowInput[]>(() => {
     const p = part.value
     if (!p) return []
-    const storedKind = new Map(p.readings.map((r) => [r.id, kindById.value.get(r.instrumentId) ?? null]))
+    const storedKind = new Map(
+      p.readings.map((r) => [r.id, kindById.value.get(r.instrumentId) ?? null]),
+    )
     const rows: ReadingRowInput[] = gridReadings.value
       .filter((r) => r.state !== 'refused')
       .map((r) => ({
@@ -119,10 +134,11 @@ export function usePartLive(
         // A discard waiting to be sent already counts: the operator has decided.
         discarded: r.discarded || r.discardWaiting,
         suspect: r.suspect,
-        instrumentKind: r.id ? storedKind.get(r.id) ?? null : null,
+        instrumentKind: r.id ? (storedKind.get(r.id) ?? null) : null,
       }))
     const d = readingDraft.value
-    if (d && Number.isFinite(d.thicknessUm)) rows.push({ round: p.round, ...d, discarded: false, suspect: false })
+    if (d && Number.isFinite(d.thicknessUm))
+      rows.push({ round: p.round, ...d, discarded: false, suspect: false })
     return rows
   })
 
@@ -130,7 +146,12 @@ export function usePartLive(
     const p = part.value
     if (!p) return { verdict: null, problem: null }
     try {
-      const input = assemblePartInput(p.spec.thickness.rule, p.round, sectionRows.value, readingRows.value)
+      const input = assemblePartInput(
+        p.spec.thickness.rule,
+        p.round,
+        sectionRows.value,
+        readingRows.value,
+      )
       return { verdict: evaluatePart(p.spec, partInfoFor(p), input), problem: null }
     } catch (err) {
       // A half-typed value the rules cannot judge yet (e.g. RH 0 %): say which, keep the last verdict.
@@ -143,9 +164,19 @@ export function usePartLive(
   /** What the screen shows: the server's verdict unless something is unsent or being typed. */
   const shown = computed<{ verdict: PartVerdict | null; source: 'server' | 'live' }>(() => {
     const server = part.value?.verdict ?? null
-    if (!typing.value && unsentCount.value === 0 && server) return { verdict: server, source: 'server' }
+    if (!typing.value && unsentCount.value === 0 && server)
+      return { verdict: server, source: 'server' }
     return { verdict: live.value.verdict ?? server, source: 'live' }
   })
 
-  return { drafts, readingDraft, gridReadings, sectionInstrumentId, live, shown, typing, unsentCount }
+  return {
+    drafts,
+    readingDraft,
+    gridReadings,
+    sectionInstrumentId,
+    live,
+    shown,
+    typing,
+    unsentCount,
+  }
 }

@@ -16,12 +16,26 @@ import { specContentSchema } from '../../../shared/spec/specContent'
  * 14.9 fails. °F = °C × 9/5 + 32, so 12.0 °C = 53.6 °F and a 3 °C margin is 5.4 °F.
  */
 function user(temperatureUnit: 'C' | 'F'): SessionUser {
-  return { id: 1, email: 'operator@harrowgate.example', name: 'Alex Marlow', role: 'operator', customerId: null, thicknessUnit: 'um', temperatureUnit, areaUnit: 'm2' }
+  return {
+    id: 1,
+    email: 'operator@harrowgate.example',
+    name: 'Alex Marlow',
+    role: 'operator',
+    customerId: null,
+    thicknessUnit: 'um',
+    temperatureUnit,
+    areaUnit: 'm2',
+  }
 }
 const spec = specContentSchema.parse({
   coatingType: 'FBE',
   thickness: { rule: 'SSPC-PA2', minUm: 304.8, maxUm: 508 },
-  surfacePrep: { grade: 'SSPC-SP10/Sa2.5', profileMethod: 'C-replica-tape', profileMinUm: 38, profileMaxUm: 100 },
+  surfacePrep: {
+    grade: 'SSPC-SP10/Sa2.5',
+    profileMethod: 'C-replica-tape',
+    profileMinUm: 38,
+    profileMaxUm: 100,
+  },
   climate: { minSteelAboveDewPointC: 3, maxRelativeHumidityPct: 85 },
   holiday: {},
   cure: {},
@@ -31,7 +45,17 @@ const spec = specContentSchema.parse({
 
 /** Only what the section reads of the part session: the part, instruments, drafts, save. */
 function fakeSession() {
-  const part = { id: 5, lotId: 1, partNumber: 'VB-1', heatNumber: '', lotStatus: 'open', spec, sections: {}, readings: [], round: 1 } as unknown as PartDetail
+  const part = {
+    id: 5,
+    lotId: 1,
+    partNumber: 'VB-1',
+    heatNumber: '',
+    lotStatus: 'open',
+    spec,
+    sections: {},
+    readings: [],
+    round: 1,
+  } as unknown as PartDetail
   return {
     part: shallowRef(part),
     instruments: ref([]),
@@ -47,7 +71,9 @@ async function type(wrapper: ReturnType<typeof mountWithVuetify>, test: string, 
 
 describe('FloorSectionClimate', () => {
   it('shows dew point, margin and the gate as the three values are typed (°C)', async () => {
-    const w = mountWithVuetify(FloorSectionClimate, { global: { provide: { [PART_SESSION_KEY as symbol]: fakeSession() } } })
+    const w = mountWithVuetify(FloorSectionClimate, {
+      global: { provide: { [PART_SESSION_KEY as symbol]: fakeSession() } },
+    })
     useSessionStore().user = user('C')
     await type(w, 'air-temp', '20')
     await type(w, 'rh', '60')
@@ -63,7 +89,9 @@ describe('FloorSectionClimate', () => {
   })
 
   it('works in °F for a person who reads °F, judging the same stored °C values', async () => {
-    const w = mountWithVuetify(FloorSectionClimate, { global: { provide: { [PART_SESSION_KEY as symbol]: fakeSession() } } })
+    const w = mountWithVuetify(FloorSectionClimate, {
+      global: { provide: { [PART_SESSION_KEY as symbol]: fakeSession() } },
+    })
     useSessionStore().user = user('F')
     await type(w, 'air-temp', '68')
     await type(w, 'rh', '60')

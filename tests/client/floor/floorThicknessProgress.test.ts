@@ -14,7 +14,12 @@ import { specContentSchema } from '../../../shared/spec/specContent'
 const spec = specContentSchema.parse({
   coatingType: 'FBE',
   thickness: { rule: 'SSPC-PA2', bandUnit: 'mil', minUm: 304.8, maxUm: 508 },
-  surfacePrep: { grade: 'SSPC-SP10/Sa2.5', profileMethod: 'C-replica-tape', profileMinUm: 38, profileMaxUm: 100 },
+  surfacePrep: {
+    grade: 'SSPC-SP10/Sa2.5',
+    profileMethod: 'C-replica-tape',
+    profileMinUm: 38,
+    profileMaxUm: 100,
+  },
   climate: {},
   holiday: {},
   cure: {},
@@ -22,8 +27,24 @@ const spec = specContentSchema.parse({
   sampling: {},
 })
 
-function reading(areaNo: number, spotNo: number, thicknessUm: number, extra: Partial<GridReading> = {}): GridReading {
-  return { key: `${areaNo}-${spotNo}-${thicknessUm}`, id: null, areaNo, spotNo, thicknessUm, state: 'stored', suspect: false, discarded: false, discardWaiting: false, ...extra }
+function reading(
+  areaNo: number,
+  spotNo: number,
+  thicknessUm: number,
+  extra: Partial<GridReading> = {},
+): GridReading {
+  return {
+    key: `${areaNo}-${spotNo}-${thicknessUm}`,
+    id: null,
+    areaNo,
+    spotNo,
+    thicknessUm,
+    state: 'stored',
+    suspect: false,
+    discarded: false,
+    discardWaiting: false,
+    ...extra,
+  }
 }
 // Area 1: spots 1–5 complete; area 2: spots 1–4 complete, spot 5 has two readings.
 const readings: GridReading[] = []
@@ -37,20 +58,33 @@ describe('thickness progress on the tablet', () => {
       'SSPC-PA2',
       1,
       [{ section: 'thickness-gauge', round: 1, data: { gaugeType: 'type-2' } }],
-      readings.map((r) => ({ round: 1, areaNo: r.areaNo, spotNo: r.spotNo, thicknessUm: r.thicknessUm, discarded: false, suspect: false })),
+      readings.map((r) => ({
+        round: 1,
+        areaNo: r.areaNo,
+        spotNo: r.spotNo,
+        thicknessUm: r.thicknessUm,
+        discarded: false,
+        suspect: false,
+      })),
     )
     const verdict = evaluatePart(spec, { coatedAreaFt2: 538.2 }, input)
-    const w = mountWithVuetify(FloorVerdictPanel, { props: { verdict, source: 'live', unsentCount: 2, problem: null, spec } })
+    const w = mountWithVuetify(FloorVerdictPanel, {
+      props: { verdict, source: 'live', unsentCount: 2, problem: null, spec },
+    })
     expect(w.get('[data-test="plan-progress"]').text()).toBe('9 of 15 spots')
     expect(w.get('[data-test="plan-derivation"]').text()).toContain('300–1,000 ft²: 3 areas')
-    expect(w.get('[data-test="verdict-panel"]').text()).toContain('includes 2 records waiting to send')
+    expect(w.get('[data-test="verdict-panel"]').text()).toContain(
+      'includes 2 records waiting to send',
+    )
     expect(w.get('[data-test="verdict-status"]').text()).toBe('Still open')
   })
 
   it('sends the next reading to the open spot, and back to a spot whose reading turned suspect', () => {
     expect(nextPa2Slot(pa2Grid(readings, 3), 3)).toEqual({ areaNo: 2, spotNo: 5, readingNo: 3 })
     // A failed gauge check makes area 1 spot 2's readings suspect: that spot must be re-measured first.
-    const withSuspect = readings.map((r) => (r.areaNo === 1 && r.spotNo === 2 ? { ...r, suspect: true } : r))
+    const withSuspect = readings.map((r) =>
+      r.areaNo === 1 && r.spotNo === 2 ? { ...r, suspect: true } : r,
+    )
     expect(nextPa2Slot(pa2Grid(withSuspect, 3), 3)).toEqual({ areaNo: 1, spotNo: 2, readingNo: 1 })
     // A refused reading (e.g. overdue gauge) does not fill its slot either.
     const refused = [...readings, reading(2, 5, 401, { state: 'refused' })]

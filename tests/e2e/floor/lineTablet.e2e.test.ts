@@ -2,8 +2,25 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { VIEWPORTS, screenshot } from '../support/browser'
 import { BASE_URL } from '../support/serverInfo'
 import type { LotDetail } from '../../../shared/api/lots'
-import { apiGet, apiToken, getPart, openTablet, sidewaysOverflow, signInByTouch, smallTargets, type Tablet } from './tablet'
-import { badge, keyReading, padReading, progressText, slotText, tapOption, useGauge } from './lineTabletSteps'
+import {
+  apiGet,
+  apiToken,
+  getPart,
+  openTablet,
+  sidewaysOverflow,
+  signInByTouch,
+  smallTargets,
+  type Tablet,
+} from './tablet'
+import {
+  badge,
+  keyReading,
+  padReading,
+  progressText,
+  slotText,
+  tapOption,
+  useGauge,
+} from './lineTabletSteps'
 
 /**
  * The line tablet, end to end against the real server: an operator opens a lot (the server
@@ -39,7 +56,14 @@ async function openLotByApi(token: string): Promise<LotDetail> {
       coatingMaterial: 'Harrowmark FBE 7-200, green (fictional)',
       batchNumber: 'PB-E2E-2',
       batchExpiresOn: '2031-01-31',
-      parts: [{ clientId: crypto.randomUUID(), partNumber: 'VB-E2E-200', heatNumber: 'HT-E2E-2', coatedAreaM2: 0.5 }],
+      parts: [
+        {
+          clientId: crypto.randomUUID(),
+          partNumber: 'VB-E2E-200',
+          heatNumber: 'HT-E2E-2',
+          coatedAreaM2: 0.5,
+        },
+      ],
     }),
   })
   expect(res.status).toBe(201)
@@ -48,7 +72,9 @@ async function openLotByApi(token: string): Promise<LotDetail> {
 
 async function checkLayout(t: Tablet, name: string) {
   await screenshot(t.page, name, false)
-  expect(await sidewaysOverflow(t.page), `${name}: page wider than the screen`).toBeLessThanOrEqual(0)
+  expect(await sidewaysOverflow(t.page), `${name}: page wider than the screen`).toBeLessThanOrEqual(
+    0,
+  )
   expect(await smallTargets(t.page), `${name}: touch targets under 48 px`).toEqual([])
 }
 
@@ -70,7 +96,9 @@ describe('line tablet at 1280×800 (landscape)', () => {
     await tapOption(page, 'lot-spec', /^HFW-FBE-01/)
     await page.locator('[data-test="lot-spec-version"]').getByText('version 1').waitFor()
     await page.locator('[data-test="lot-order"] input').fill('PO-E2E-LANDSCAPE')
-    await page.locator('[data-test="lot-material"] input').fill('Harrowmark FBE 7-200, green (fictional)')
+    await page
+      .locator('[data-test="lot-material"] input')
+      .fill('Harrowmark FBE 7-200, green (fictional)')
     await page.locator('[data-test="lot-batch"] input').fill('PB-E2E-1')
     await page.locator('[data-test="lot-batch-expiry"] input').fill('2020-01-31')
     await page.locator('[data-test="part-number"] input').fill('VB-E2E-100')
@@ -78,8 +106,12 @@ describe('line tablet at 1280×800 (landscape)', () => {
     await page.locator('[data-test="coated-area"] input').fill('0.5')
     await page.locator('[data-test="lot-save"]').tap()
     await page.locator('[data-test="lot-refused"]').waitFor()
-    expect(await page.locator('[data-test="lot-refused"]').textContent()).toMatch(/expired|use-by|past/i)
-    expect(await page.locator('[data-test="lot-order"] input').inputValue()).toBe('PO-E2E-LANDSCAPE')
+    expect(await page.locator('[data-test="lot-refused"]').textContent()).toMatch(
+      /expired|use-by|past/i,
+    )
+    expect(await page.locator('[data-test="lot-order"] input').inputValue()).toBe(
+      'PO-E2E-LANDSCAPE',
+    )
     expect(await page.locator('[data-test="part-number"] input').inputValue()).toBe('VB-E2E-100')
     await checkLayout(t, 'floor-lot-refused-1280x800')
 
@@ -106,21 +138,33 @@ describe('line tablet at 1280×800 (landscape)', () => {
     await context.setOffline(true)
     for (const spot of SPOTS.slice(3)) for (const r of spot) await keyReading(page, r)
     // Offline readings are on the grid as waiting and count toward the live plan.
-    await expect.poll(() => page.locator('[data-test="pa2-grid"] [data-state="waiting"]').count()).toBe(6)
+    await expect
+      .poll(() => page.locator('[data-test="pa2-grid"] [data-state="waiting"]').count())
+      .toBe(6)
     await expect.poll(async () => (await badge(page)).waiting, { timeout: 15_000 }).toBe(6)
     expect((await badge(page)).text).toContain('6 waiting')
     expect(await progressText(page)).toBe('5 of 5 spots')
-    expect(await page.locator('[data-test="verdict-panel"]:visible').first().getAttribute('data-source')).toBe('live')
+    expect(
+      await page.locator('[data-test="verdict-panel"]:visible').first().getAttribute('data-source'),
+    ).toBe('live')
     expect((await getPart(token, partId)).readings).toHaveLength(9)
     await checkLayout(t, 'floor-part-offline-1280x800')
 
     await context.setOffline(false)
     await expect.poll(async () => (await badge(page)).text, { timeout: 30_000 }).toBe('All sent')
     const stored = await getPart(token, partId)
-    expect(stored.readings.filter((r) => !r.discarded).map((r) => r.thicknessUm)).toEqual(SPOTS.flat().map(Number))
+    expect(stored.readings.filter((r) => !r.discarded).map((r) => r.thicknessUm)).toEqual(
+      SPOTS.flat().map(Number),
+    )
     expect(stored.verdict?.samplingPlan.spotsRecorded).toBe(5)
     expect(stored.verdict?.criteria.find((c) => c.criterion === 'thickness')?.status).toBe('pass')
-    await expect.poll(() => page.locator('[data-test="verdict-panel"]:visible').first().getAttribute('data-source'), { timeout: 10_000 }).toBe('server')
+    await expect
+      .poll(
+        () =>
+          page.locator('[data-test="verdict-panel"]:visible').first().getAttribute('data-source'),
+        { timeout: 10_000 },
+      )
+      .toBe('server')
     await checkLayout(t, 'floor-part-thickness-1280x800')
   })
 
@@ -131,10 +175,14 @@ describe('line tablet at 1280×800 (landscape)', () => {
     await page.locator('[data-test="rh"] input').fill('60')
     await page.locator('[data-test="steel-temp"] input').fill('15')
     expect(await page.locator('[data-test="dew-point"]').textContent()).toBe('12.0 °C')
-    expect(await page.locator('[data-test="climate-verdict"]').textContent()).toContain('Fit to coat')
+    expect(await page.locator('[data-test="climate-verdict"]').textContent()).toContain(
+      'Fit to coat',
+    )
     // Gate [C]: at 20 °C / 60 % the steel must be ≥ 15.0 °C; 14.9 fails.
     await page.locator('[data-test="steel-temp"] input').fill('14.9')
-    expect(await page.locator('[data-test="climate-verdict"]').textContent()).toContain('Do not coat')
+    expect(await page.locator('[data-test="climate-verdict"]').textContent()).toContain(
+      'Do not coat',
+    )
     await page.locator('[data-test="steel-temp"] input').fill('15')
     await page.locator('[data-test="section-climate"] [data-test="section-save"]').tap()
     await page.locator('[data-test="section-notice"]').waitFor()
@@ -181,7 +229,9 @@ describe('line tablet at 800×1280 (portrait)', () => {
     expect(await page.locator('[data-test="queue-waiting"]').count()).toBe(0)
     const stored = await getPart(token, partId)
     expect(stored.readings.map((r) => r.thicknessUm)).toEqual(SPOTS.slice(0, 2).flat().map(Number))
-    expect(stored.readings.every((r) => r.areaNo === 1 && r.spotNo >= 1 && r.spotNo <= 2)).toBe(true)
+    expect(stored.readings.every((r) => r.areaNo === 1 && r.spotNo >= 1 && r.spotNo <= 2)).toBe(
+      true,
+    )
     await page.goBack()
     await page.locator('[data-test="pa2-grid"]').waitFor()
     await checkLayout(t, 'floor-part-thickness-800x1280')

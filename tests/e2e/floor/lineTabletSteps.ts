@@ -35,10 +35,20 @@ export async function slotText(page: Page): Promise<string> {
 }
 
 export async function progressText(page: Page): Promise<string> {
-  return (await page.locator('[data-test="verdict-panel"]:visible [data-test="plan-progress"]').first().textContent())?.trim() ?? ''
+  return (
+    (
+      await page
+        .locator('[data-test="verdict-panel"]:visible [data-test="plan-progress"]')
+        .first()
+        .textContent()
+    )?.trim() ?? ''
+  )
 }
 
 export async function badge(page: Page): Promise<{ waiting: number; text: string }> {
   const b = page.locator('[data-test="queue-badge"]')
-  return { waiting: Number(await b.getAttribute('data-waiting')), text: (await b.textContent())?.trim() ?? '' }
+  return {
+    waiting: Number(await b.getAttribute('data-waiting')),
+    text: (await b.textContent())?.trim() ?? '',
+  }
 }

@@ -24,7 +24,15 @@ export async function openTablet(viewport: { width: number; height: number }): P
     headless: true,
     viewport,
     hasTouch: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
   })
   const page = context.pages()[0] ?? (await context.newPage())
   page.setDefaultTimeout(10_000)
@@ -32,7 +40,8 @@ export async function openTablet(viewport: { width: number; height: number }): P
   page.on('pageerror', (e) => problems.push(`page error: ${e.message}`))
   page.on('console', (m) => {
     // Requests that fail while the test holds the tablet offline are the point of the test.
-    if (m.type() === 'error' && !/ERR_INTERNET_DISCONNECTED|Failed to load resource/.test(m.text())) problems.push(`console: ${m.text()}`)
+    if (m.type() === 'error' && !/ERR_INTERNET_DISCONNECTED|Failed to load resource/.test(m.text()))
+      problems.push(`console: ${m.text()}`)
   })
   return {
     context,
@@ -76,10 +85,17 @@ export const getLot = (token: string, id: number) => apiGet<LotDetail>(token, `/
 /** Buttons and tabs in the page that a gloved finger would miss (< 48 px, [P] touch-target guidance). */
 export async function smallTargets(page: Page): Promise<string[]> {
   return page.evaluate(() =>
-    [...document.querySelectorAll<HTMLElement>('main .v-btn, main [role="tab"], main .reading, main .spot-name, header .v-btn')]
+    [
+      ...document.querySelectorAll<HTMLElement>(
+        'main .v-btn, main [role="tab"], main .reading, main .spot-name, header .v-btn',
+      ),
+    ]
       .map((el) => ({ el, r: el.getBoundingClientRect() }))
       .filter(({ r }) => r.width > 0 && r.height > 0 && (r.height < 47.5 || r.width < 47.5))
-      .map(({ el, r }) => `${el.textContent?.trim() || el.getAttribute('aria-label')} ${Math.round(r.width)}×${Math.round(r.height)}`),
+      .map(
+        ({ el, r }) =>
+          `${el.textContent?.trim() || el.getAttribute('aria-label')} ${Math.round(r.width)}×${Math.round(r.height)}`,
+      ),
   )
 }
 
