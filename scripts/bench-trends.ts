@@ -8,7 +8,9 @@
  */
 import { randomBytes } from 'node:crypto'
 import type { AddressInfo } from 'node:net'
+import { loadavg } from 'node:os'
 import { parseArgs } from 'node:util'
+import { QueryTypes } from 'sequelize'
 
 const { values } = parseArgs({ options: { runs: { type: 'string', default: '40' } } })
 const runs = Number(values.runs)
@@ -48,8 +50,22 @@ try {
     specChoices: { specId: number; code: string }[]
   }
   const second = first.specChoices[1]
-  if (second) cases.push([`one year, spec ${second.code}`, `/api/trends?${year}&specId=${second.specId}`])
-  console.log(`Parts inspected in the last year: ${first.totals.inspected}; ${runs} runs per request.`)
+  if (second)
+    cases.push([`one year, spec ${second.code}`, `/api/trends?${year}&specId=${second.specId}`])
+  console.log(
+    `Parts inspected in the last year: ${first.totals.inspected}; ${runs} runs per request.`,
+  )
+  // A fixed CPU-bound query, to compare runs on a busy machine with runs on a quiet one.
+  const r0 = performance.now()
+  await sequelize.query('SELECT count(*) FROM generate_series(1, 1000000)', {
+    type: QueryTypes.SELECT,
+  })
+  const refMs = performance.now() - r0
+  console.log(
+    `Reference (count of a 1,000,000-row generate_series): ${refMs.toFixed(0)} ms; load ${loadavg()
+      .map((l) => l.toFixed(1))
+      .join(' ')}`,
+  )
 
   for (const [label, path] of cases) {
     const ms: number[] = []
@@ -62,12 +78,16 @@ try {
     }
     ms.sort((a, b) => a - b)
     const q = (p: number) => ms[Math.min(ms.length - 1, Math.ceil(p * ms.length) - 1)]!.toFixed(1)
-    console.log(`  ${label.padEnd(34)} p50 ${q(0.5).padStart(6)} ms  p95 ${q(0.95).padStart(6)} ms  max ${q(1).padStart(6)} ms`)
+    console.log(
+      `  ${label.padEnd(34)} p50 ${q(0.5).padStart(6)} ms  p95 ${q(0.95).padStart(6)} ms  max ${q(1).padStart(6)} ms`,
+    )
   }
   const t0 = performance.now()
   const csv = await fetch(`${base}/api/trends/export.csv?${year}`, { headers: auth })
   const bytes = (await csv.arrayBuffer()).byteLength
-  console.log(`  CSV export, one year: ${(bytes / 1e6).toFixed(1)} MB in ${(performance.now() - t0).toFixed(0)} ms`)
+  console.log(
+    `  CSV export, one year: ${(bytes / 1e6).toFixed(1)} MB in ${(performance.now() - t0).toFixed(0)} ms`,
+  )
 } finally {
   server.close()
   await sequelize.close()

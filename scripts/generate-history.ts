@@ -25,7 +25,11 @@ const parts = Number(values.parts)
 const weeks = Number(values.weeks)
 const readingsPerPart = Number(values.readings)
 const seed = Number(values.seed)
-for (const [name, v, min] of [['parts', parts, 1], ['weeks', weeks, 1], ['readings', readingsPerPart, 3]] as const) {
+for (const [name, v, min] of [
+  ['parts', parts, 1],
+  ['weeks', weeks, 1],
+  ['readings', readingsPerPart, 3],
+] as const) {
   if (!Number.isInteger(v) || v < min) throw new Error(`--${name} must be a whole number ≥ ${min}`)
 }
 if (process.env.NODE_ENV === 'production') {
@@ -34,7 +38,9 @@ if (process.env.NODE_ENV === 'production') {
 }
 const url = process.env.DATABASE_URL
 if (!url) {
-  console.error('Set DATABASE_URL to the database to fill (e.g. a throwaway one on 127.0.0.1:54339).')
+  console.error(
+    'Set DATABASE_URL to the database to fill (e.g. a throwaway one on 127.0.0.1:54339).',
+  )
   process.exit(1)
 }
 
@@ -77,7 +83,13 @@ try {
   await client.query('COMMIT')
   const t0 = Date.now()
   // VACUUM marks the new pages all-visible, so the trend queries can use index-only scans.
-  for (const table of ['lots', 'parts', 'gauge_readings', 'section_records', 'nonconformance_parts'])
+  for (const table of [
+    'lots',
+    'parts',
+    'gauge_readings',
+    'section_records',
+    'nonconformance_parts',
+  ])
     await client.query(`VACUUM ANALYZE ${table}`)
   console.log(`  ${'vacuum analyze'.padEnd(26)} ${seconds(t0).padStart(6)} s`)
   const { rows } = await client.query<{ what: string; n: string }>(`

@@ -1,10 +1,24 @@
 import { computed, shallowRef, watch } from 'vue'
 import { useRoute, useRouter, type LocationQuery } from 'vue-router'
-import { trendsFilterSchema, type TrendsFilterInput, type TrendsOptions, type TrendsReport } from '@shared/api/trends'
+import {
+  trendsFilterSchema,
+  type TrendsFilterInput,
+  type TrendsOptions,
+  type TrendsReport,
+} from '@shared/api/trends'
 import { trendsApi } from '@/services/trends'
 import { useAsync } from './useAsync'
 
-const KEYS = ['from', 'to', 'line', 'shift', 'specId', 'customerId', 'family', 'subgroupSize'] as const
+const KEYS = [
+  'from',
+  'to',
+  'line',
+  'shift',
+  'specId',
+  'customerId',
+  'family',
+  'subgroupSize',
+] as const
 type Key = (typeof KEYS)[number]
 export type TrendsUrlFilter = Partial<Record<Key, string>>
 

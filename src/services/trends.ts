@@ -13,12 +13,15 @@ export function trendsQueryString(filter: TrendsFilterInput): string {
 }
 
 export const trendsApi = {
-  report: (filter: TrendsFilterInput) => api.get<TrendsReport>(`/api/trends${trendsQueryString(filter)}`),
+  report: (filter: TrendsFilterInput) =>
+    api.get<TrendsReport>(`/api/trends${trendsQueryString(filter)}`),
   options: (period: { from?: string; to?: string }) =>
     api.get<TrendsOptions>(`/api/trends/options${trendsQueryString(period)}`),
   /** Fetches the CSV with the bearer token and hands it to the browser as a download. */
   async downloadCsv(filter: TrendsFilterInput): Promise<void> {
-    const { blob, fileName } = await api.getBlob(`/api/trends/export.csv${trendsQueryString(filter)}`)
+    const { blob, fileName } = await api.getBlob(
+      `/api/trends/export.csv${trendsQueryString(filter)}`,
+    )
     const url = URL.createObjectURL(blob)
     const a = document.createElement('a')
     a.href = url

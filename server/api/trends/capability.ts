@@ -58,13 +58,19 @@ export function capabilityReading(input: {
   } else if (thinSide) {
     out.push(`The process runs thin: ${l} ${f2(idx.cpl!)} — parts come too close to the minimum.`)
   } else {
-    out.push(`The process runs thick: ${u} ${f2(idx.cpu!)} — parts come too close to the maximum (and use more powder).`)
+    out.push(
+      `The process runs thick: ${u} ${f2(idx.cpu!)} — parts come too close to the maximum (and use more powder).`,
+    )
   }
   if (idx.cp !== null && idx.cpk < CAPABLE) {
     if (idx.cp < NOT_CAPABLE) {
-      out.push(`The spread is wider than the band (${p} ${f2(idx.cp)}): centring alone will not fix it; reduce the variation.`)
+      out.push(
+        `The spread is wider than the band (${p} ${f2(idx.cp)}): centring alone will not fix it; reduce the variation.`,
+      )
     } else if (idx.cp >= CAPABLE) {
-      out.push(`The spread would fit (${p} ${f2(idx.cp)}); the mean is off centre — re-centre the film build.`)
+      out.push(
+        `The spread would fit (${p} ${f2(idx.cp)}); the mean is off centre — re-centre the film build.`,
+      )
     }
   }
   if (uslUm === null) out.push('The spec sets no maximum: only the lower side is judged.')

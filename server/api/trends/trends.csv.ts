@@ -38,7 +38,9 @@ export async function writeTrendsCsv(input: TrendsFilter, res: Response): Promis
   res.write('\uFEFF' + csvLine([...TRENDS_CSV_COLUMNS]))
   let after: { at: string; id: number } | null = null
   for (;;) {
-    const keyset = after ? `AND (p.created_at, p.id) > ($${k + 1}::timestamptz, $${k + 2}::int)` : ''
+    const keyset = after
+      ? `AND (p.created_at, p.id) > ($${k + 1}::timestamptz, $${k + 2}::int)`
+      : ''
     const rows: Record<string, unknown>[] = await sequelize.query(
       `SELECT to_char(p.created_at, 'YYYY-MM-DD"T"HH24:MI:SSOF') AS inspected_at,
               to_char(p.created_at, 'IYYY-"W"IW') AS week, l.lot_number, l.line, l.shift,

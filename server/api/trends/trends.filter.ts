@@ -41,7 +41,7 @@ export function filterSql(f: ResolvedTrendsFilter): FilterSql {
   const bind: unknown[] = [f.from, f.to]
   const where = [
     'p.created_at >= $1::date',
-    "p.created_at < $2::date + 1",
+    'p.created_at < $2::date + 1',
     'p.first_pass_status IS NOT NULL',
     'p.sampled',
   ]

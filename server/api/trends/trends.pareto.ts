@@ -57,5 +57,9 @@ export async function loadPareto(filter: FilterSql): Promise<ParetoCause[]> {
              / sum(n) OVER () AS "cumulativePct"
       FROM counted
      ORDER BY n DESC, cause, source`
-  return readQuery<ParetoCause>(sql, [...filter.bind, labels.map(([c]) => c), labels.map(([, l]) => l)])
+  return readQuery<ParetoCause>(sql, [
+    ...filter.bind,
+    labels.map(([c]) => c),
+    labels.map(([, l]) => l),
+  ])
 }

@@ -23,7 +23,9 @@ interface SummaryRow {
  * kept by the database from the latest round-1 holiday record (migration 0004); a part without
  * one is not counted as tested.
  */
-export async function loadSummary(filter: FilterSql): Promise<Omit<TrendsReport, 'filter' | 'pareto' | 'thickness'>> {
+export async function loadSummary(
+  filter: FilterSql,
+): Promise<Omit<TrendsReport, 'filter' | 'pareto' | 'thickness'>> {
   const sql = `
     WITH roll AS (
       SELECT date_trunc('week', p.created_at) AS wk, l.shift, l.spec_id,

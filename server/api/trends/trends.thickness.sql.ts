@@ -27,7 +27,9 @@ export function thicknessSql(
       SELECT p.id, p.lot_id, p.created_at, p.thickness_mean_um AS v, l.spec_version
       ${filter.fromWhere} AND l.spec_id = $${s} AND p.thickness_mean_um IS NOT NULL
     ),
-    latest AS (SELECT max(spec_version) AS version FROM fp),
+    -- One pass for the versions used; everything about versions is read from this tiny list.
+    fv AS (SELECT spec_version AS version, count(*)::int AS n FROM fp GROUP BY spec_version),
+    latest AS (SELECT max(version) AS version FROM fv),
     band AS (
       SELECT (sv.content #>> '{thickness,minUm}')::float8 AS lsl,
              (sv.content #>> '{thickness,maxUm}')::float8 AS usl
@@ -35,7 +37,7 @@ export function thicknessSql(
        WHERE sv.spec_id = $${s}
     ),
     same_band AS (
-      SELECT sv.version FROM spec_versions sv, band
+      SELECT sv.version, fv.n FROM spec_versions sv JOIN fv ON fv.version = sv.version, band
        WHERE sv.spec_id = $${s}
          AND (sv.content #>> '{thickness,minUm}')::float8 = band.lsl
          AND (sv.content #>> '{thickness,maxUm}')::float8 IS NOT DISTINCT FROM band.usl
@@ -77,8 +79,8 @@ export function thicknessSql(
     )
     SELECT
       (SELECT row_to_json(band) FROM band) AS band,
-      (SELECT json_agg(version ORDER BY version) FROM (SELECT DISTINCT spec_version AS version FROM t) v) AS versions,
-      (SELECT count(*)::int FROM fp) - (SELECT count(*)::int FROM t) AS excluded,
+      (SELECT json_agg(version ORDER BY version) FROM same_band) AS versions,
+      (SELECT sum(n)::int FROM fv) - (SELECT coalesce(sum(n), 0)::int FROM same_band) AS excluded,
       (SELECT row_to_json(stats) FROM stats) AS stats,
       (SELECT json_build_object('count', count(*)::int, 'rBar', avg(r), 'center', avg(m)) FROM sg) AS sub,
       (SELECT json_build_object('start', start, 'width', width, 'below', below, 'nbins', nbins,

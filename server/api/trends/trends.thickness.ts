@@ -52,7 +52,11 @@ function histogram(row: ThicknessRow): HistogramBinRow[] {
   }))
 }
 
-function controlChart(row: ThicknessRow, subgroupSize: number, sigmaWithin: number | null): ControlChart | null {
+function controlChart(
+  row: ThicknessRow,
+  subgroupSize: number,
+  sigmaWithin: number | null,
+): ControlChart | null {
   const center = row.sub.center
   if (center === null || sigmaWithin === null || !(sigmaWithin > 0)) return null
   const sigmaMeanUm = sigmaWithin / Math.sqrt(subgroupSize)
@@ -124,7 +128,14 @@ export async function loadThickness(
     d2,
     within,
     overall,
-    reading: capabilityReading({ n: st.n, meanUm: st.mean, lslUm: lsl, uslUm: usl, within, overall }),
+    reading: capabilityReading({
+      n: st.n,
+      meanUm: st.mean,
+      lslUm: lsl,
+      uslUm: usl,
+      within,
+      overall,
+    }),
     histogram: histogram(row),
     histogramOpenTop: !(usl !== null && usl > lsl),
     controlChart: controlChart(row, subgroupSize, sigmaWithinUm),

@@ -16,6 +16,7 @@ import type { MigrationContext } from '../migrate'
  * per part; the trigger below keeps the count as the records arrive (section_records is
  * append-only: the newest row is the current record, so the count is taken from NEW).
  *
+ * parts_trends_lot: the thickness section of one spec (see below).
  * parts_first_pass_fail: the Pareto's fallback reads only the parts that failed first pass.
  */
 export async function up({ context: { sequelize } }: { context: MigrationContext }) {
@@ -45,6 +46,10 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
     CREATE INDEX parts_trends_created ON parts (created_at, id)
       INCLUDE (lot_id, first_pass_status, thickness_mean_um, quantity, coated_area_m2, sampled,
                holidays_found_r1, part_number);
+    -- The thickness section: one spec's lots → their parts in lot and time order, which is the
+    -- window's PARTITION BY lot_id ORDER BY created_at, id — read pre-sorted, index-only.
+    CREATE INDEX parts_trends_lot ON parts (lot_id, created_at, id)
+      INCLUDE (thickness_mean_um, first_pass_status, sampled, part_number);
     CREATE INDEX parts_first_pass_fail ON parts (created_at) WHERE first_pass_status = 'fail';
   `)
 }
@@ -52,6 +57,7 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
 export async function down({ context: { sequelize } }: { context: MigrationContext }) {
   await sequelize.query(`
     DROP INDEX parts_first_pass_fail;
+    DROP INDEX parts_trends_lot;
     DROP INDEX parts_trends_created;
     DROP TRIGGER section_records_holidays_r1 ON section_records;
     DROP FUNCTION section_records_count_holidays();

@@ -18,7 +18,17 @@ import {
   type Plugin,
 } from 'chart.js'
 
-Chart.register(BarController, LineController, BarElement, LineElement, PointElement, CategoryScale, LinearScale, Tooltip, Legend)
+Chart.register(
+  BarController,
+  LineController,
+  BarElement,
+  LineElement,
+  PointElement,
+  CategoryScale,
+  LinearScale,
+  Tooltip,
+  Legend,
+)
 Chart.defaults.font.family = 'Roboto, system-ui, sans-serif'
 Chart.defaults.font.size = 13
 Chart.defaults.color = '#2B2B2B'
@@ -38,7 +48,11 @@ export const TREND_COLOURS = {
 export const DASH = { solid: [] as number[], dashed: [6, 4], dotted: [2, 3], long: [12, 5] }
 
 /** Diagonal hatching: bars that must stand out without colour (out of band, a shift). */
-export function hatch(colour: string, background = '#FFFFFF', reverse = false): CanvasPattern | string {
+export function hatch(
+  colour: string,
+  background = '#FFFFFF',
+  reverse = false,
+): CanvasPattern | string {
   if (typeof document === 'undefined') return colour
   const c = document.createElement('canvas')
   c.width = c.height = 8
@@ -91,7 +105,13 @@ export const bandLinesPlugin: Plugin<'bar', BandLinesOptions> = {
       g.moveTo(px, area.top + 14)
       g.lineTo(px, area.bottom)
       g.stroke()
-      g.fillText(e.label, px, area.top + 10)
+      // Labels at the plot's edges are aligned inwards so they are never cut off.
+      g.textAlign = px - area.left < 40 ? 'left' : area.right - px < 40 ? 'right' : 'center'
+      g.fillText(
+        e.label,
+        px + (g.textAlign === 'left' ? 4 : g.textAlign === 'right' ? -4 : 0),
+        area.top + 10,
+      )
     }
     g.restore()
   },
@@ -103,7 +123,9 @@ export function baseOptions() {
     responsive: true,
     maintainAspectRatio: false,
     animation: false as const,
-    plugins: { legend: { position: 'bottom' as const, labels: { usePointStyle: true, boxWidth: 28 } } },
+    plugins: {
+      legend: { position: 'bottom' as const, labels: { usePointStyle: true, boxWidth: 28 } },
+    },
     scales: {
       x: { grid: { color: TREND_COLOURS.grid } },
       y: { grid: { color: TREND_COLOURS.grid }, beginAtZero: true },
