@@ -1,15 +1,16 @@
 import { QueryTypes } from 'sequelize'
 import { sequelize } from '../index'
 import { User } from '../models'
+import type { SpecContent } from '../../../shared/spec/specContent'
 import { specContentFor } from '../../api/lots/specCache'
-import { nextNcNumber } from '../../api/nonconformances/ncNumber'
 import { ensureDefectType } from '../../api/defect-types/defectTypes.service'
-import { defectCodeFor } from '../../api/defect-types/defaultDefectTypes'
+import { DEFAULT_DEFECT_TYPES, defectCodeFor } from '../../api/defect-types/defaultDefectTypes'
 import {
-  HOUR,
+  AuditRows,
+  NcNumbers,
   firstRoundFailures,
-  seedDecision,
-  seedEvent,
+  insertRows,
+  later,
   type SeededLot,
   type SeededPart,
 } from './reviewHistory.parts'
@@ -17,9 +18,9 @@ import type { Seeder } from './seeder'
 
 /**
  * The QA side of the floor history: each seeded lot past the floor gets its submission, its
- * nonconformances (repaired ones closed, the queue's ones open) and its decisions, dated when
- * they would have happened, so a lot's history tells the whole story and the queue can be
- * worked to empty. Runs once, after the floor history.
+ * nonconformances (repaired ones closed on released lots, open ones on the lots in the queue)
+ * and its decisions, dated when they would have happened — so a lot's history tells the whole
+ * story and the queue can be worked to empty. Written in bulk; runs once, after the floor history.
  */
 export const reviewHistorySeeder: Seeder = {
   name: 'review-history',
@@ -35,30 +36,168 @@ export const reviewHistorySeeder: Seeder = {
     const users = new Map((await User.findAll({ transaction: t })).map((u) => [u.id, u]))
     const lots = await sequelize.query<SeededLot>(
       `SELECT l.id, l.lot_number, l.status, l.opened_by, l.spec_id, l.spec_version,
-              coalesce((SELECT max(s.recorded_at) FROM section_records s JOIN parts p ON p.id = s.part_id
-                         WHERE p.lot_id = l.id AND s.round = 1), l.created_at) AS round1_done,
-              coalesce((SELECT max(s.recorded_at) FROM section_records s JOIN parts p ON p.id = s.part_id
-                         WHERE p.lot_id = l.id), l.created_at) AS last_done
+              coalesce(max(s.recorded_at) FILTER (WHERE s.round = 1), l.created_at) AS round1_done,
+              coalesce(max(s.recorded_at), l.created_at) AS last_done
          FROM lots l
-        WHERE l.status IN ('awaiting-review', 'released') AND NOT EXISTS (SELECT 1 FROM lot_submissions s WHERE s.lot_id = l.id)
-        ORDER BY l.id`,
+         LEFT JOIN parts p ON p.lot_id = l.id
+         LEFT JOIN section_records s ON s.part_id = p.id
+        WHERE l.status IN ('awaiting-review', 'released')
+          AND NOT EXISTS (SELECT 1 FROM lot_submissions x WHERE x.lot_id = l.id)
+        GROUP BY l.id ORDER BY l.id`,
       { type: QueryTypes.SELECT, transaction: t },
     )
-    let ncCount = 0
+    if (lots.length === 0) return
+    const parts = await sequelize.query<SeededPart>(
+      `SELECT id, lot_id, part_number, heat_number, coated_area_m2, round, verdict FROM parts
+        WHERE lot_id = ANY($1::int[]) AND (round > 1 OR verdict_status = 'fail') ORDER BY id`,
+      { bind: [lots.map((l) => l.id)], type: QueryTypes.SELECT, transaction: t },
+    )
+    const lotById = new Map(lots.map((l) => [l.id, l]))
+    const specs = new Map<number, SpecContent>()
+    for (const l of lots) specs.set(l.id, await specContentFor(l.spec_id, l.spec_version, t))
+    const repaired = parts.filter(
+      (p) => lotById.get(p.lot_id)!.status === 'released' && p.round > 1,
+    )
+    const firstFailures = await firstRoundFailures(
+      (id) => specs.get(parts.find((p) => p.id === id)!.lot_id)!,
+      repaired,
+      t,
+    )
+    const typeIds = new Map<string, number>()
+    for (const d of DEFAULT_DEFECT_TYPES)
+      typeIds.set(d.code, (await ensureDefectType(d.code, t)).id)
+    const numbers = await NcNumbers.load(t)
+    const audit = new AuditRows()
+
+    // Nonconformances first: their ids are needed for the links and the events.
+    const ncs: {
+      row: unknown[]
+      lot: SeededLot
+      part: SeededPart
+      criterion: string
+      released: boolean
+    }[] = []
+    for (const p of parts) {
+      const lot = lotById.get(p.lot_id)!
+      const released = lot.status === 'released'
+      const failures = released
+        ? (firstFailures.get(p.id) ?? [])
+        : p.verdict.criteria.filter((c) => c.status === 'fail')
+      const submittedAt = later(lot.round1_done, 0.25)
+      for (const c of failures) {
+        const number = numbers.next(submittedAt)
+        const closedAt = later(lot.last_done, 0.5)
+        ncs.push({
+          lot,
+          part: p,
+          criterion: c.criterion,
+          released,
+          row: [
+            number,
+            lot.id,
+            released ? 'closed' : 'open',
+            'auto',
+            c.criterion,
+            typeIds.get(defectCodeFor(c.criterion, c.reason)),
+            `Part ${p.part_number} (heat ${p.heat_number}), round 1: ${c.reason}`,
+            released ? 'repair-retest' : null,
+            released ? 'Repair and re-measure' : '',
+            released ? supervisor.id : null,
+            released ? later(submittedAt, 1) : null,
+            released ? `Retest round ${p.round} passed every criterion` : null,
+            released ? supervisor.id : null,
+            released ? closedAt : null,
+            lot.opened_by,
+            released ? 3 : 1,
+            submittedAt,
+            released ? closedAt : submittedAt,
+          ],
+        })
+      }
+    }
+    const ncColumns = [
+      'number',
+      'lot_id',
+      'status',
+      'source',
+      'criterion',
+      'defect_type_id',
+      'description',
+      'disposition',
+      'disposition_note',
+      'dispositioned_by',
+      'dispositioned_at',
+      'verification',
+      'closed_by',
+      'closed_at',
+      'opened_by',
+      'version',
+      'created_at',
+      'updated_at',
+    ]
+    const ids = await insertRows<{ id: number; number: string }>(
+      t,
+      'nonconformances',
+      ncColumns,
+      ncs.map((n) => n.row),
+      'id, number',
+    )
+    const idOf = new Map(ids.map((r) => [r.number, r.id]))
+    await numbers.save(t)
+    const links: unknown[][] = []
+    const heldLots = new Set<number>()
+    for (const n of ncs) {
+      const number = n.row[0] as string
+      const id = idOf.get(number)!
+      const submittedAt = n.row[16] as Date
+      links.push([id, n.part.id, 1, n.released ? n.part.round : null])
+      const opener = users.get(n.lot.opened_by) ?? null
+      // Opened by the submission, a moment after it.
+      audit.add(later(submittedAt, 1 / 3600), opener, {
+        action: 'nonconformance.open',
+        entityType: 'nonconformance',
+        entityId: id,
+        lotId: n.lot.id,
+        after: { number, criterion: n.criterion, status: 'open' },
+        note: `${number} opened automatically at submission`,
+      })
+      if (!n.released) continue
+      heldLots.add(n.lot.id)
+      audit.add(later(submittedAt, 1), supervisor, {
+        action: 'nonconformance.disposition',
+        entityType: 'nonconformance',
+        entityId: id,
+        lotId: n.lot.id,
+        before: { status: 'open' },
+        after: { status: 'dispositioned', disposition: 'repair-retest' },
+        note: `${number}: Repair and retest`,
+      })
+      audit.add(n.row[13] as Date, supervisor, {
+        action: 'nonconformance.close',
+        entityType: 'nonconformance',
+        entityId: id,
+        lotId: n.lot.id,
+        before: { status: 'dispositioned' },
+        after: { status: 'closed' },
+        note: `${number} closed: retest passed`,
+      })
+    }
+    await insertRows(
+      t,
+      'nonconformance_parts',
+      ['nonconformance_id', 'part_id', 'round_found', 'retest_round'],
+      links,
+    )
+
+    // Submissions and decisions: repaired lots were held for the repair, then released.
+    const submissions: unknown[][] = []
+    const decisions: unknown[][] = []
+    const versions: unknown[][] = []
     for (const lot of lots) {
-      const spec = await specContentFor(lot.spec_id, lot.spec_version, t)
+      const submittedAt = later(lot.round1_done, 0.25)
       const opener = users.get(lot.opened_by) ?? null
-      const submittedAt = new Date(new Date(lot.round1_done).getTime() + 0.25 * HOUR)
-      const parts = await sequelize.query<SeededPart>(
-        `SELECT id, part_number, heat_number, coated_area_m2, round, verdict FROM parts
-          WHERE lot_id = $1 AND (round > 1 OR verdict_status = 'fail') ORDER BY id`,
-        { bind: [lot.id], type: QueryTypes.SELECT, transaction: t },
-      )
-      await sequelize.query(
-        'INSERT INTO lot_submissions (lot_id, submitted_by, submitted_at) VALUES ($1, $2, $3)',
-        { bind: [lot.id, lot.opened_by, submittedAt], transaction: t },
-      )
-      await seedEvent(t, submittedAt, opener, {
+      submissions.push([lot.id, lot.opened_by, submittedAt])
+      audit.add(submittedAt, opener, {
         action: 'lot.submit',
         entityType: 'lot',
         entityId: lot.id,
@@ -67,117 +206,57 @@ export const reviewHistorySeeder: Seeder = {
         after: { status: 'awaiting-review' },
         note: `Lot ${lot.lot_number} submitted for review`,
       })
-      const ncIds: number[] = []
-      for (const p of parts) {
-        const released = lot.status === 'released'
-        const failures = released
-          ? await firstRoundFailures(spec, p, t)
-          : p.verdict.criteria.filter((c) => c.status === 'fail')
-        for (const c of failures) {
-          const type = await ensureDefectType(defectCodeFor(c.criterion, c.reason), t)
-          const number = await nextNcNumber(submittedAt, t)
-          const closedAt = new Date(new Date(lot.last_done).getTime() + 0.5 * HOUR)
-          const [nc] = await sequelize.query<{ id: number }>(
-            `INSERT INTO nonconformances (number, lot_id, status, source, criterion, defect_type_id, description, disposition,
-               disposition_note, dispositioned_by, dispositioned_at, verification, closed_by, closed_at, opened_by, version, created_at, updated_at)
-             VALUES ($1, $2, $3, 'auto', $4, $5, $6, $7, $8, $9, $10, $11, $9, $12, $13, $14, $15, $15) RETURNING id`,
-            {
-              bind: [
-                number,
-                lot.id,
-                released ? 'closed' : 'open',
-                c.criterion,
-                type.id,
-                `Part ${p.part_number} (heat ${p.heat_number}), round 1: ${c.reason}`,
-                released ? 'repair-retest' : null,
-                released ? 'Repair and re-measure' : '',
-                released ? supervisor.id : null,
-                released ? new Date(submittedAt.getTime() + HOUR) : null,
-                released ? `Retest round ${p.round} passed every criterion` : null,
-                released ? closedAt : null,
-                lot.opened_by,
-                released ? 3 : 1,
-                submittedAt,
-              ],
-              type: QueryTypes.SELECT,
-              transaction: t,
-            },
-          )
-          await sequelize.query(
-            'INSERT INTO nonconformance_parts (nonconformance_id, part_id, round_found, retest_round) VALUES ($1, $2, 1, $3)',
-            {
-              bind: [nc!.id, p.id, released ? p.round : null],
-              transaction: t,
-            },
-          )
-          await seedEvent(t, submittedAt, opener, {
-            action: 'nonconformance.open',
-            entityType: 'nonconformance',
-            entityId: nc!.id,
-            lotId: lot.id,
-            after: { number, criterion: c.criterion, status: 'open' },
-            note: `${number} opened automatically at submission`,
-          })
-          if (released) {
-            await seedEvent(t, new Date(submittedAt.getTime() + HOUR), supervisor, {
-              action: 'nonconformance.disposition',
-              entityType: 'nonconformance',
-              entityId: nc!.id,
-              lotId: lot.id,
-              before: { status: 'open' },
-              after: { status: 'dispositioned', disposition: 'repair-retest' },
-              note: `${number}: Repair and retest`,
-            })
-            await seedEvent(t, closedAt, supervisor, {
-              action: 'nonconformance.close',
-              entityType: 'nonconformance',
-              entityId: nc!.id,
-              lotId: lot.id,
-              before: { status: 'dispositioned' },
-              after: { status: 'closed' },
-              note: `${number} closed: retest passed`,
-            })
-          }
-          ncIds.push(nc!.id)
-          ncCount += 1
-        }
-      }
       if (lot.status !== 'released') continue
-      // Repaired lots were held for the repair and submitted again; the rest released straight away.
       let version = 2
-      if (ncIds.length) {
-        await seedDecision(
-          t,
-          lot,
-          supervisor,
-          'hold',
-          'Nonconforming parts: repair and retest',
-          'awaiting-review',
-          'on-hold',
-          version++,
-          new Date(submittedAt.getTime() + HOUR),
-        )
+      let from = 'awaiting-review'
+      const decide = (decision: 'hold' | 'release', reason: string, to: string, at: Date) => {
+        decisions.push([lot.id, decision, reason, from, to, version, supervisor.id, at])
+        audit.add(at, supervisor, {
+          action: `lot.${decision}`,
+          entityType: 'lot',
+          entityId: lot.id,
+          lotId: lot.id,
+          before: { status: from },
+          after: { status: to, reason },
+          note: `Lot ${lot.lot_number} ${to}`,
+        })
+        from = to
+        version += 1
       }
-      const releasedAt = new Date(
-        new Date(lot.last_done).getTime() + (ncIds.length ? 1 : 1.5) * HOUR,
-      )
-      await seedDecision(
-        t,
-        lot,
-        supervisor,
-        'release',
-        '',
-        ncIds.length ? 'on-hold' : 'awaiting-review',
-        'released',
-        version++,
-        releasedAt,
-      )
-      await sequelize.query('UPDATE lots SET version = $2 WHERE id = $1', {
-        bind: [lot.id, version],
-        transaction: t,
-      })
+      const held = heldLots.has(lot.id)
+      if (held)
+        decide('hold', 'Nonconforming parts: repair and retest', 'on-hold', later(submittedAt, 1))
+      decide('release', '', 'released', later(lot.last_done, held ? 1 : 1.5))
+      versions.push([lot.id, version])
     }
+    await insertRows(t, 'lot_submissions', ['lot_id', 'submitted_by', 'submitted_at'], submissions)
+    await insertRows(
+      t,
+      'lot_decisions',
+      [
+        'lot_id',
+        'decision',
+        'reason',
+        'from_status',
+        'to_status',
+        'lot_version',
+        'decided_by',
+        'decided_at',
+      ],
+      decisions,
+    )
+    if (versions.length) {
+      const bind: unknown[] = []
+      const values = versions
+        .map((r) => `($${bind.push(r[0])}::int, $${bind.push(r[1])}::int)`)
+        .join(',')
+      await sequelize.query(
+        `UPDATE lots l SET version = v.version FROM (VALUES ${values}) v(id, version) WHERE l.id = v.id`,
+        { bind, transaction: t },
+      )
+    }
+    await audit.save(t)
     ctx.tally['lot reviews'] = { created: lots.length, kept: 0 }
-    ctx.tally['nonconformances'] = { created: ncCount, kept: 0 }
+    ctx.tally['nonconformances'] = { created: ncs.length, kept: 0 }
   },
 }
