@@ -1,10 +1,13 @@
 import { createRouter, createWebHistory, type RouteRecordRaw } from 'vue-router'
-import { ADMIN, FLOOR, STAFF, type Role } from '@shared/api/roles'
+import { ADMIN, FLOOR, QA, STAFF, type Role } from '@shared/api/roles'
 import { TRENDS_ROLES } from '@shared/api/trends'
 import { CERTIFICATE_STAFF, CERTIFICATE_READERS } from '@shared/api/certificates'
 import { useSessionStore } from '@/stores/session'
 import { ROUTES } from './routeNames'
 import { roleHome } from './navigation'
+
+/** The lot review page: QA decides there; a plant manager may read the evidence. */
+const REVIEW_READERS: Role[] = [...QA, 'manager']
 
 declare module 'vue-router' {
   interface RouteMeta {
@@ -79,6 +82,18 @@ const routes: RouteRecordRaw[] = [
         meta: { roles: ADMIN, title: 'Instruments' },
       },
       {
+        path: 'defect-types',
+        name: ROUTES.setupDefectTypes,
+        component: () => import('@/views/setup/SetupDefectTypesView.vue'),
+        meta: { roles: ADMIN, title: 'Defect types' },
+      },
+      {
+        path: 'audit',
+        name: ROUTES.setupAudit,
+        component: () => import('@/views/setup/SetupAuditView.vue'),
+        meta: { roles: ADMIN, title: 'Audit trail' },
+      },
+      {
         path: 'settings',
         name: ROUTES.setupSettings,
         component: () => import('@/views/setup/SetupSettingsView.vue'),
@@ -122,6 +137,45 @@ const routes: RouteRecordRaw[] = [
         name: ROUTES.floorQueue,
         component: () => import('@/views/floor/FloorQueueView.vue'),
         meta: { roles: FLOOR, title: 'Waiting to send' },
+      },
+    ],
+  },
+  {
+    path: '/review',
+    meta: { roles: STAFF },
+    children: [
+      {
+        path: '',
+        name: ROUTES.reviewQueue,
+        component: () => import('@/views/review/ReviewQueueView.vue'),
+        meta: { roles: QA, title: 'Review queue' },
+      },
+      {
+        path: 'lots/:id(\\d+)',
+        name: ROUTES.reviewLot,
+        component: () => import('@/views/review/ReviewLotView.vue'),
+        props: (r) => ({ id: Number(r.params.id) }),
+        meta: { roles: REVIEW_READERS, title: 'Lot review' },
+      },
+      {
+        path: 'lots/:id(\\d+)/history',
+        name: ROUTES.reviewLotHistory,
+        component: () => import('@/views/review/ReviewLotHistoryView.vue'),
+        props: (r) => ({ id: Number(r.params.id) }),
+        meta: { roles: STAFF, title: 'Lot history' },
+      },
+      {
+        path: 'nonconformances',
+        name: ROUTES.reviewNcs,
+        component: () => import('@/views/review/ReviewNcListView.vue'),
+        meta: { roles: STAFF, title: 'Nonconformances' },
+      },
+      {
+        path: 'nonconformances/:id(\\d+)',
+        name: ROUTES.reviewNc,
+        component: () => import('@/views/review/ReviewNcView.vue'),
+        props: (r) => ({ id: Number(r.params.id) }),
+        meta: { roles: STAFF, title: 'Nonconformance' },
       },
     ],
   },

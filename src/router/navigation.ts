@@ -7,6 +7,10 @@
 import type { RouteLocationRaw, Router } from 'vue-router'
 import {
   mdiAccountGroupOutline,
+  mdiAlertOctagonOutline,
+  mdiClipboardCheckOutline,
+  mdiHistory,
+  mdiTagOutline,
   mdiCertificateOutline,
   mdiChartTimelineVariant,
   mdiClipboardListOutline,
@@ -40,6 +44,23 @@ export const NAV_GROUPS: NavGroup[] = [
     entries: [
       { title: 'Lots', icon: mdiClipboardListOutline, route: ROUTES.floorLots, hint: 'Open a lot, inspect its parts' },
       { title: 'Waiting to send', icon: mdiCloudUploadOutline, route: ROUTES.floorQueue, hint: 'Records kept on this tablet' },
+    ],
+  },
+  {
+    heading: 'QA review',
+    entries: [
+      {
+        title: 'Review queue',
+        icon: mdiClipboardCheckOutline,
+        route: ROUTES.reviewQueue,
+        hint: 'Lots to release, hold or reject',
+      },
+      {
+        title: 'Nonconformances',
+        icon: mdiAlertOctagonOutline,
+        route: ROUTES.reviewNcs,
+        hint: 'Dispositions and closure',
+      },
     ],
   },
   {
@@ -77,6 +98,18 @@ export const NAV_GROUPS: NavGroup[] = [
       { title: 'Instruments', icon: mdiGauge, route: ROUTES.setupInstruments, hint: 'Gauges and calibration' },
       { title: 'Customers', icon: mdiDomain, route: ROUTES.setupCustomers, hint: 'Companies and contacts' },
       { title: 'People', icon: mdiAccountGroupOutline, route: ROUTES.setupPeople, hint: 'Sign-ins and roles' },
+      {
+        title: 'Defect types',
+        icon: mdiTagOutline,
+        route: ROUTES.setupDefectTypes,
+        hint: 'What a nonconformance is filed under',
+      },
+      {
+        title: 'Audit trail',
+        icon: mdiHistory,
+        route: ROUTES.setupAudit,
+        hint: 'Every change, by person and record',
+      },
       { title: 'Plant settings', icon: mdiCogOutline, route: ROUTES.setupSettings },
     ],
   },

@@ -23,6 +23,14 @@ export const ROUTES = {
   certificate: 'certificate',
   portal: 'portal',
   verify: 'verify',
+  // QA review: the queue, a lot's evidence and decision, nonconformances, a lot's history.
+  reviewQueue: 'review-queue',
+  reviewLot: 'review-lot',
+  reviewLotHistory: 'review-lot-history',
+  reviewNcs: 'review-ncs',
+  reviewNc: 'review-nc',
+  setupDefectTypes: 'setup-defect-types',
+  setupAudit: 'setup-audit',
 } as const
 
 export type RouteName = (typeof ROUTES)[keyof typeof ROUTES]
