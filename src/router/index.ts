@@ -144,8 +144,10 @@ const routes: RouteRecordRaw[] = [
     path: '/review',
     meta: { roles: STAFF },
     children: [
+      // The queue has its own path: the drawer marks an entry active on any path under it.
+      { path: '', redirect: { name: ROUTES.reviewQueue } },
       {
-        path: '',
+        path: 'queue',
         name: ROUTES.reviewQueue,
         component: () => import('@/views/review/ReviewQueueView.vue'),
         meta: { roles: QA, title: 'Review queue' },

@@ -86,7 +86,8 @@ describe('QA review in the browser', () => {
   it('shows the lot in the queue and holds it, with a reason', async () => {
     const { page } = sup
     await signIn(page, SUPERVISOR)
-    await page.goto(`${BASE_URL}/review`)
+    await page.waitForLoadState('networkidle')
+    await page.goto(`${BASE_URL}/review/queue`)
     const row = page.locator(`[data-test="queue-awaiting"] [data-lot="${lot.lotNumber}"]`)
     await row.waitFor()
     await expect(row.locator('[data-status="fail"]').textContent()).resolves.toContain(
@@ -160,6 +161,8 @@ describe('QA review in the browser', () => {
     expect(part.verdict?.status, part.verdict?.reason).toBe('pass')
     const { page } = op
     await signIn(page, OPERATOR)
+    // Let the home page finish loading: a goto mid-load aborts its chunk requests.
+    await page.waitForLoadState('networkidle')
     await page.goto(`${BASE_URL}/line/lots/${lot.id}`)
     await page.locator('[data-test="send-to-review"]').click()
     await expect(
@@ -215,7 +218,7 @@ describe('QA review in the browser', () => {
     const timeline = page.locator('[data-test="history-timeline"]')
     await timeline.waitFor()
     const actions = await timeline
-      .locator('li')
+      .locator(':scope > li')
       .evaluateAll((els) => els.map((e) => e.getAttribute('data-action')))
     const order = [
       'lot.hold',
