@@ -25,6 +25,8 @@ describe('certificates in the browser', () => {
   beforeAll(async () => {
     staff = await openBrowser(VIEWPORTS.desktop)
     customer = await openBrowser(VIEWPORTS.tabletLandscape)
+    // The PDF is rendered while the issuing request waits: give that step room on a busy machine.
+    staff.page.setDefaultTimeout(20_000)
   })
   afterAll(async () => {
     await staff?.close()
@@ -36,7 +38,7 @@ describe('certificates in the browser', () => {
     await signIn(page, 'supervisor@harrowgate.example')
     await page.getByRole('navigation').getByText('Certificates', { exact: true }).last().click()
     await page.getByRole('heading', { name: 'Certificates of conformance' }).waitFor()
-    await page.getByLabel('Lot, order or customer').fill('Ashvale')
+    await page.locator('[data-test="lot-search"] input').fill('Ashvale')
     const row = page.locator('[data-test="lots-to-issue"] [data-lot]').first()
     await row.waitFor()
     // Wait for the search answer: every row then belongs to Ashvale Water Board.
@@ -67,7 +69,8 @@ describe('certificates in the browser', () => {
     await page.locator('[data-test="portal-search"] input').fill(lotNumber)
     const row = page.locator(`[data-certificate="${number}"]`)
     await row.waitFor()
-    await expect(page.locator('[data-certificate]').count()).resolves.toBe(1)
+    // The search answers a moment after typing stops.
+    await expect.poll(() => page.locator('[data-certificate]').count()).toBe(1)
     await screenshot(page, 'portal-search')
     const [download] = await Promise.all([
       page.waitForEvent('download'),
@@ -117,10 +120,12 @@ describe('certificates in the browser', () => {
     await expect
       .poll(() => page.locator('[data-test="certificate-title"]').textContent())
       .not.toContain(number)
+    await page.locator('[data-test="reason"]').waitFor({ state: 'hidden' })
     await page.locator('[data-test="revoke"]').click()
     await page.locator('[data-test="reason"] textarea').fill('Issued against the wrong order line')
     await page.locator('[data-test="reason-confirm"]').click()
     await page.locator('[data-state="revoked"]').first().waitFor()
+    await page.locator('[data-test="reason"]').waitFor({ state: 'hidden' })
     await screenshot(page, 'certificate-detail-withdrawn')
 
     const anon = await openBrowser(VIEWPORTS.tabletPortrait)
