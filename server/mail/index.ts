@@ -9,7 +9,11 @@ export { createSmtpSender, type MailSender, type OutgoingMail } from './transpor
 /** Starts the worker on SMTP_HOST:SMTP_PORT, polling every OUTBOX_POLL_MS; answers its stop. */
 export function startOutboxWorker(): () => Promise<void> {
   const sender = createSmtpSender({ host: env.SMTP_HOST, port: env.SMTP_PORT })
-  const worker = new OutboxWorker({ sender, from: env.MAIL_FROM, pollMs: env.OUTBOX_POLL_MS }).start()
+  const worker = new OutboxWorker({
+    sender,
+    from: env.MAIL_FROM,
+    pollMs: env.OUTBOX_POLL_MS,
+  }).start()
   return async () => {
     await worker.stop()
     sender.close()

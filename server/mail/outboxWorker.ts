@@ -119,7 +119,11 @@ export class OutboxWorker {
     )
     if (!cert || cert.state !== 'valid') {
       // Withdrawn or replaced before it went out: sending it now would mislead the customer.
-      await this.finish(row, 'failed', `Not sent: the certificate was ${cert?.state ?? 'removed'} before it went out`)
+      await this.finish(
+        row,
+        'failed',
+        `Not sent: the certificate was ${cert?.state ?? 'removed'} before it went out`,
+      )
       return
     }
     try {
@@ -147,7 +151,10 @@ export class OutboxWorker {
       const message = err instanceof Error ? err.message : String(err)
       const giveUp = row.attempts >= this.retry.maxAttempts
       await this.finish(row, giveUp ? 'failed' : 'queued', message.slice(0, 1000))
-      this.log.warn({ outboxId: row.id, attempts: row.attempts, err: message }, 'certificate e-mail not sent')
+      this.log.warn(
+        { outboxId: row.id, attempts: row.attempts, err: message },
+        'certificate e-mail not sent',
+      )
     }
   }
 

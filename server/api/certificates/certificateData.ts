@@ -90,6 +90,7 @@ export function buildCertificateData(
       p.round,
       p.sections ?? [],
       p.readings ?? [],
+      p.carried_sections ?? [],
     )
     return {
       partNumber: p.part_number,

@@ -5,6 +5,7 @@ import type { PartVerdict } from '../../../shared/rules/evaluatePart'
 import type { ReadingRowInput, SectionRowInput } from '../../../shared/inspection/assemblePartInput'
 import type { Disposition, NcStatus } from '../../../shared/api/review'
 import type { Line } from '../../../shared/api/lots'
+import type { SectionName } from '../../../shared/api/lots'
 
 export interface SourceLot {
   id: number
@@ -37,6 +38,7 @@ export interface SourcePart {
   verdict: PartVerdict | null
   scrapped_by_nc: number | null
   sections: SectionRowInput[] | null
+  carried_sections: SectionName[] | null
   readings: ReadingRowInput[] | null
 }
 
@@ -77,13 +79,17 @@ export async function loadCertificateSource(
     t,
   )
   if (!lot) return null
-  // Current round only: the latest record of each section, the readings not discarded.
+  // Current round: the latest record of each section (carried ones of a repair round included),
+  // the readings not discarded.
   const parts = await q<SourcePart>(
     `SELECT p.id, p.part_number, p.description, p.heat_number, p.quantity, p.round, p.sampled,
             p.verdict, p.scrapped_by_nc,
             (SELECT json_agg(json_build_object('section', s.section, 'round', s.round, 'data', s.data) ORDER BY s.id)
                FROM (SELECT DISTINCT ON (section) id, section, round, data FROM section_records
-                      WHERE part_id = p.id AND round = p.round ORDER BY section, id DESC) s) AS sections,
+                      WHERE part_id = p.id AND (round = p.round
+                        OR (round < p.round AND section = ANY(p.carried_sections)))
+                      ORDER BY section, round DESC, id DESC) s) AS sections,
+            p.carried_sections,
             (SELECT json_agg(json_build_object('round', r.round, 'areaNo', r.area_no, 'spotNo', r.spot_no,
                       'thicknessUm', r.thickness_um, 'discarded', false, 'suspect', r.suspect,
                       'instrumentKind', i.kind) ORDER BY r.area_no, r.spot_no, r.id)

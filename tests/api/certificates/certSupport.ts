@@ -9,16 +9,30 @@ import { SMTPServer } from 'smtp-server'
 import { simpleParser, type ParsedMail } from 'mailparser'
 import { Customer, CustomerContact } from '../../../server/db/models'
 import { createUser, tokenFor } from '../support/fixtures'
-import { GOOD_SPOTS_UM, decide, inspectedLot, submit, type ReviewWorld } from '../review/reviewSupport'
+import {
+  GOOD_SPOTS_UM,
+  decide,
+  inspectedLot,
+  submit,
+  type ReviewWorld,
+} from '../review/reviewSupport'
 
 export async function withContacts(customerId: number, unit: 'um' | 'mil' = 'mil') {
-  await Customer.update({ thicknessUnit: unit, address: '1 Test Reservoir Road (fictional)' }, { where: { id: customerId } })
+  await Customer.update(
+    { thicknessUnit: unit, address: '1 Test Reservoir Road (fictional)' },
+    { where: { id: customerId } },
+  )
   const tag = Math.random().toString(36).slice(2, 8)
   const contacts = await CustomerContact.bulkCreate([
     { customerId, name: 'Certificates inbox', email: `certs-${tag}@water.example` },
     { customerId, name: 'Buyer', email: `buyer-${tag}@water.example` },
     // Neither of these may get the e-mail: one does not receive certificates, one has left.
-    { customerId, name: 'Accounts', email: `accounts-${tag}@water.example`, receivesCertificates: false },
+    {
+      customerId,
+      name: 'Accounts',
+      email: `accounts-${tag}@water.example`,
+      receivesCertificates: false,
+    },
     { customerId, name: 'Former buyer', email: `former-${tag}@water.example`, active: false },
   ])
   return { receiving: contacts.slice(0, 2).map((c) => c.email), all: contacts }
@@ -30,7 +44,11 @@ export async function customerUser(app: Express, customerId: number) {
 }
 
 /** A lot inspected by the operator, submitted and released by the (independent) supervisor. */
-export async function releasedLot(app: Express, w: ReviewWorld, spots: number[][][] = [GOOD_SPOTS_UM, GOOD_SPOTS_UM]) {
+export async function releasedLot(
+  app: Express,
+  w: ReviewWorld,
+  spots: number[][][] = [GOOD_SPOTS_UM, GOOD_SPOTS_UM],
+) {
   const lot = await inspectedLot(app, w, spots)
   await releaseInspected(app, w, lot.id)
   return lot
@@ -40,7 +58,8 @@ export async function releaseInspected(app: Express, w: ReviewWorld, lotId: numb
   const s = await submit(app, w.operator, lotId)
   if (s.status !== 200) throw new Error(`submit: ${s.status} ${JSON.stringify(s.body)}`)
   const d = await decide(app, w, w.supervisor, lotId, 'release')
-  if (d.status !== 200 && d.status !== 201) throw new Error(`release: ${d.status} ${JSON.stringify(d.body)}`)
+  if (d.status !== 200 && d.status !== 201)
+    throw new Error(`release: ${d.status} ${JSON.stringify(d.body)}`)
 }
 
 export function issue(app: Express, auth: string, lotId: number, kind?: string) {

@@ -42,15 +42,21 @@ describe('certificates: customer portal, reissue, revoke and public verification
       .get(`/api/certificates?customerId=${theirs.customerId}&q=${theirs.lotNumber}`)
       .set('Authorization', customerA.auth)
     expect(forced.body).toEqual([])
-    const staff = await request(app).get('/api/certificates').set('Authorization', w.supervisor.auth)
+    const staff = await request(app)
+      .get('/api/certificates')
+      .set('Authorization', w.supervisor.auth)
     expect(staff.body.map((c: { id: number }) => c.id).sort()).toEqual([mine.id, theirs.id].sort())
   })
 
   it('another company’s certificate by id answers 404, the same body as one that does not exist', async () => {
     const missingId = theirs.id + 1000
     for (const suffix of ['', '/pdf']) {
-      const guessed = await request(app).get(`/api/certificates/${theirs.id}${suffix}`).set('Authorization', customerA.auth)
-      const missing = await request(app).get(`/api/certificates/${missingId}${suffix}`).set('Authorization', customerA.auth)
+      const guessed = await request(app)
+        .get(`/api/certificates/${theirs.id}${suffix}`)
+        .set('Authorization', customerA.auth)
+      const missing = await request(app)
+        .get(`/api/certificates/${missingId}${suffix}`)
+        .set('Authorization', customerA.auth)
       expect(guessed.status).toBe(404)
       expect(missing.status).toBe(404)
       expect(guessed.body.error.code).toBe(missing.body.error.code)
@@ -68,13 +74,27 @@ describe('certificates: customer portal, reissue, revoke and public verification
   })
 
   it('a customer finds a certificate by order, lot, part or heat number; sees no mail log', async () => {
-    for (const q of [mine.orderRef, mine.lotNumber.slice(-4), mine.partNumbers[0]!, mine.heatNumbers[0]!]) {
-      const res = await request(app).get(`/api/certificates?q=${encodeURIComponent(q)}`).set('Authorization', customerA.auth)
-      expect(res.body.map((c: { id: number }) => c.id), q).toEqual([mine.id])
+    for (const q of [
+      mine.orderRef,
+      mine.lotNumber.slice(-4),
+      mine.partNumbers[0]!,
+      mine.heatNumbers[0]!,
+    ]) {
+      const res = await request(app)
+        .get(`/api/certificates?q=${encodeURIComponent(q)}`)
+        .set('Authorization', customerA.auth)
+      expect(
+        res.body.map((c: { id: number }) => c.id),
+        q,
+      ).toEqual([mine.id])
     }
-    const none = await request(app).get('/api/certificates?q=no-such-order-xyz').set('Authorization', customerA.auth)
+    const none = await request(app)
+      .get('/api/certificates?q=no-such-order-xyz')
+      .set('Authorization', customerA.auth)
     expect(none.body).toEqual([])
-    const detail = await request(app).get(`/api/certificates/${mine.id}`).set('Authorization', customerA.auth)
+    const detail = await request(app)
+      .get(`/api/certificates/${mine.id}`)
+      .set('Authorization', customerA.auth)
     expect(detail.body.deliveries).toBeNull()
     const reissue = await request(app)
       .post(`/api/certificates/${mine.id}/revoke`)
@@ -133,14 +153,27 @@ describe('certificates: customer portal, reissue, revoke and public verification
     expect(last.body.state).toBe('revoked')
     expect(Date.parse(last.body.revokedAt)).toBeGreaterThan(Date.parse(successor.issuedAt) - 1000)
     expect(Object.keys(last.body).sort()).toEqual(
-      ['contentFingerprint', 'fingerprint', 'issuedAt', 'lotNumber', 'number', 'revokedAt', 'state', 'successor'].sort(),
+      [
+        'contentFingerprint',
+        'fingerprint',
+        'issuedAt',
+        'lotNumber',
+        'number',
+        'revokedAt',
+        'state',
+        'successor',
+      ].sort(),
     )
     expect(JSON.stringify(last.body)).not.toMatch(/customer|part|order|Water/i)
     const unknown = await verify('AAAAAAAAAAAAAAAAAAAAAA')
     expect(unknown.status).toBe(404)
     // The revoked lot is offered for a fresh certificate again.
-    const toIssue = await request(app).get('/api/certificates/lots-to-issue').set('Authorization', w.supervisor.auth)
-    expect(toIssue.body.find((l: { lotId: number }) => l.lotId === lotA.id)).toMatchObject({ hadRevoked: true })
+    const toIssue = await request(app)
+      .get('/api/certificates/lots-to-issue')
+      .set('Authorization', w.supervisor.auth)
+    expect(toIssue.body.find((l: { lotId: number }) => l.lotId === lotA.id)).toMatchObject({
+      hadRevoked: true,
+    })
   })
 
   it('a lot reopened after release marks its certificate as needing reissue', async () => {
@@ -150,10 +183,15 @@ describe('certificates: customer portal, reissue, revoke and public verification
     const reopen = await request(app)
       .post(`/api/lots/${lot.id}/reopen`)
       .set('Authorization', w.supervisor.auth)
-      .send({ reason: 'Customer reported a thin flange face', version: await lotVersion(app, w, lot.id) })
+      .send({
+        reason: 'Customer reported a thin flange face',
+        version: await lotVersion(app, w, lot.id),
+      })
     expect(reopen.status).toBe(200)
     expect(reopen.body.certificatesMarked).toBe(1)
-    const after = await request(app).get(`/api/certificates/${cert.id}`).set('Authorization', w.supervisor.auth)
+    const after = await request(app)
+      .get(`/api/certificates/${cert.id}`)
+      .set('Authorization', w.supervisor.auth)
     expect(after.body.needsReissue).toBe(true)
     // While the lot is open again it cannot be certified anew.
     const re = await request(app)

@@ -12,7 +12,14 @@ import { OutboxWorker } from '../../../server/mail/outboxWorker'
 import { createSmtpSender } from '../../../server/mail/transport'
 import { retryDelayMs } from '../../../server/mail/backoff'
 import { reviewWorld, type ReviewWorld } from '../review/reviewSupport'
-import { freePort, issue, releasedLot, startSmtpFake, withContacts, type SmtpFake } from './certSupport'
+import {
+  freePort,
+  issue,
+  releasedLot,
+  startSmtpFake,
+  withContacts,
+  type SmtpFake,
+} from './certSupport'
 import type { CertificateDetail } from '../../../shared/api/certificates'
 
 const app = createApp()
@@ -39,7 +46,12 @@ function workerOn(port: number, id: string) {
 }
 
 async function outboxOf(certificateId: number) {
-  return sequelize.query<{ recipient_email: string; status: string; attempts: number; last_error: string | null }>(
+  return sequelize.query<{
+    recipient_email: string
+    status: string
+    attempts: number
+    last_error: string | null
+  }>(
     'SELECT recipient_email, status, attempts, last_error FROM mail_outbox WHERE certificate_id = $1 ORDER BY id',
     { bind: [certificateId], type: QueryTypes.SELECT },
   )
@@ -74,7 +86,9 @@ describe('certificate e-mail outbox', () => {
   it('queues one message per certificate contact in the issuing transaction, and sends it with the PDF', async () => {
     const cert = await issued()
     // Queued before any worker ran: the issue itself wrote the rows.
-    expect(cert.deliveries!.map((d) => [d.recipientEmail, d.state])).toEqual(receiving.map((e) => [e, 'queued']))
+    expect(cert.deliveries!.map((d) => [d.recipientEmail, d.state])).toEqual(
+      receiving.map((e) => [e, 'queued']),
+    )
     fake = await startSmtpFake()
     cleanups.push(() => fake.stop())
     await workerOn(fake.port, 'w-send').runOnce()
@@ -90,7 +104,9 @@ describe('certificate e-mail outbox', () => {
       const { createHash } = await import('node:crypto')
       expect(createHash('sha256').update(pdf.content).digest('hex')).toBe(cert.fingerprint)
     }
-    const after = await request(app).get(`/api/certificates/${cert.id}`).set('Authorization', w.supervisor.auth)
+    const after = await request(app)
+      .get(`/api/certificates/${cert.id}`)
+      .set('Authorization', w.supervisor.auth)
     expect(after.body.deliveries.map((d: { state: string }) => d.state)).toEqual(['sent', 'sent'])
   })
 
@@ -101,8 +117,12 @@ describe('certificate e-mail outbox', () => {
     await worker.runOnce()
     const waiting = await outboxOf(cert.id)
     expect(waiting.map((r) => r.status)).toEqual(['queued', 'queued'])
-    expect(waiting.every((r) => r.attempts === 1 && /ECONNREFUSED|connect/i.test(r.last_error ?? ''))).toBe(true)
-    const detail = await request(app).get(`/api/certificates/${cert.id}`).set('Authorization', w.supervisor.auth)
+    expect(
+      waiting.every((r) => r.attempts === 1 && /ECONNREFUSED|connect/i.test(r.last_error ?? '')),
+    ).toBe(true)
+    const detail = await request(app)
+      .get(`/api/certificates/${cert.id}`)
+      .set('Authorization', w.supervisor.auth)
     expect(detail.body.deliveries[0].lastError).toMatch(/ECONNREFUSED|connect/i)
     fake = await startSmtpFake(port)
     cleanups.push(() => fake.stop())
@@ -125,7 +145,9 @@ describe('certificate e-mail outbox', () => {
       const rows = (await Promise.all(certs.map((c) => outboxOf(c.id)))).flat()
       return rows.every((r) => r.status === 'sent')
     })
-    const subjects = fake.messages.map((m) => `${m.subject} → ${fake.envelopes[fake.messages.indexOf(m)]}`)
+    const subjects = fake.messages.map(
+      (m) => `${m.subject} → ${fake.envelopes[fake.messages.indexOf(m)]}`,
+    )
     expect(new Set(subjects).size).toBe(subjects.length)
     expect(fake.messages).toHaveLength(certs.length * receiving.length)
   })
@@ -150,8 +172,13 @@ describe('certificate e-mail outbox', () => {
     await until(async () => (await outboxOf(cert.id)).every((r) => r.status === 'failed'))
     const failed = await outboxOf(cert.id)
     expect(failed.every((r) => r.attempts === FAST_RETRY.maxAttempts)).toBe(true)
-    const page = await request(app).get(`/api/certificates/${cert.id}`).set('Authorization', w.supervisor.auth)
-    expect(page.body.deliveries.map((d: { state: string }) => d.state)).toEqual(['failed', 'failed'])
+    const page = await request(app)
+      .get(`/api/certificates/${cert.id}`)
+      .set('Authorization', w.supervisor.auth)
+    expect(page.body.deliveries.map((d: { state: string }) => d.state)).toEqual([
+      'failed',
+      'failed',
+    ])
     await worker.stop()
 
     const resend = await request(app)
@@ -159,7 +186,9 @@ describe('certificate e-mail outbox', () => {
       .set('Authorization', w.supervisor.auth)
       .send({})
     expect(resend.status).toBe(200)
-    expect(resend.body.deliveries.map((d: { state: string; attempts: number }) => [d.state, d.attempts])).toEqual([
+    expect(
+      resend.body.deliveries.map((d: { state: string; attempts: number }) => [d.state, d.attempts]),
+    ).toEqual([
       ['queued', 0],
       ['queued', 0],
     ])

@@ -62,7 +62,11 @@ describe('certificate of conformance issued for a released lot', () => {
     const add = await request(app)
       .post(`/api/parts/${lot.partIds[1]}/readings`)
       .set('Authorization', w.operator.auth)
-      .send({ readings: [{ clientId: uuid(), areaNo: 1, spotNo: 5, thicknessUm: 448, instrumentId: w.ids.gauge }] })
+      .send({
+        readings: [
+          { clientId: uuid(), areaNo: 1, spotNo: 5, thicknessUm: 448, instrumentId: w.ids.gauge },
+        ],
+      })
     expect(add.status).toBe(201)
     await releaseInspected(app, w, lot.id)
     const res = await issue(app, w.supervisor.auth, lot.id)
@@ -78,10 +82,14 @@ describe('certificate of conformance issued for a released lot', () => {
     const text = await readPdfText(pdf)
     for (const partId of lot.partIds) {
       const readings = await liveReadingsUm(partId)
-      const [part] = await sequelize.query<{ part_number: string; heat_number: string; description: string }>(
-        'SELECT part_number, heat_number, description FROM parts WHERE id = $1',
-        { bind: [partId], type: QueryTypes.SELECT },
-      )
+      const [part] = await sequelize.query<{
+        part_number: string
+        heat_number: string
+        description: string
+      }>('SELECT part_number, heat_number, description FROM parts WHERE id = $1', {
+        bind: [partId],
+        type: QueryTypes.SELECT,
+      })
       const mean = readings.reduce((a, b) => a + b, 0) / readings.length
       expect(text.all).toMatch(
         rowPattern([
@@ -138,9 +146,9 @@ describe('certificate of conformance issued for a released lot', () => {
     await expect(
       sequelize.query("UPDATE certificates SET pdf = '\\x00' WHERE id = $1", { bind: [cert.id] }),
     ).rejects.toThrow(/evidence/)
-    await expect(sequelize.query('DELETE FROM certificates WHERE id = $1', { bind: [cert.id] })).rejects.toThrow(
-      /never deleted/,
-    )
+    await expect(
+      sequelize.query('DELETE FROM certificates WHERE id = $1', { bind: [cert.id] }),
+    ).rejects.toThrow(/never deleted/)
   })
 
   it('numbers certificates in our own scheme and writes an audit event', async () => {
