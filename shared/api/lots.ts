@@ -199,6 +199,8 @@ export interface PartRow {
   sampled: boolean
   /** 1 at first inspection; a repair or recoat opens round 2, 3, ... */
   round: number
+  /** Sections this round carries from the earlier one unless re-recorded (a repair round). */
+  carriedSections: SectionName[]
   verdict: PartVerdict | null
   version: number
 }
@@ -206,7 +208,7 @@ export interface PartRow {
 export interface PartDetail extends PartRow {
   lotStatus: LotStatus
   spec: SpecContent
-  /** Latest record of each section in the current round. */
+  /** Latest record of each section in the current round (or carried from an earlier round). */
   sections: Partial<Record<SectionName, SectionRecordRow>>
   /** Earlier records, earlier rounds included: nothing is overwritten. */
   history: SectionRecordRow[]

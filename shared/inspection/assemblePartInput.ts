@@ -10,6 +10,20 @@ import { baseMetalReadingUm } from '../rules/pa2'
 import { squareMetresToSquareFeet } from '../rules/units'
 import type { PartInfo } from '../rules/partInput'
 
+/**
+ * Sections a repair-and-retest round carries over from the earlier round unless re-recorded: a
+ * touch-up does not change the blast, the climate at coating, the gauge set-up or the cure and
+ * adhesion of the original film. Thickness readings and the holiday test are always retaken.
+ * A strip-and-recoat round carries nothing (common practice [P]).
+ */
+export const REPAIR_CARRIED_SECTIONS: readonly SectionName[] = [
+  'surface-prep',
+  'climate',
+  'thickness-gauge',
+  'cure',
+  'adhesion',
+]
+
 /** A section record as stored: the latest per (round, section) is current. */
 export interface SectionRowInput {
   section: SectionName
@@ -39,7 +53,9 @@ type ThicknessSection = {
 
 /**
  * Rows for one part → the rules' input for its current `round`.
- * - sections: in the order recorded (oldest first); for each section the last row of the round wins.
+ * - sections: in the order recorded (oldest first); for each section the last row of the round wins;
+ *   a section in `carriedSections` that the round has not recorded takes the last row of an
+ *   earlier round (repair-and-retest, see REPAIR_CARRIED_SECTIONS).
  * - readings: discarded ones are left out; any suspect one left in sets `suspectReadings`, so the
  *   part cannot pass until it is discarded and re-measured.
  * - SSPC-PA 2: areas by area number, spots by spot number inside each (gaps close up);
@@ -52,9 +68,18 @@ export function assemblePartInput(
   round: number,
   sections: readonly SectionRowInput[],
   readings: readonly ReadingRowInput[],
+  carriedSections: readonly SectionName[] = [],
 ): PartInspectionInput {
   const current = new Map<SectionName, unknown>()
-  for (const s of sections) if (s.round === round) current.set(s.section, s.data)
+  const carried = new Map<SectionName, { round: number; data: unknown }>()
+  for (const s of sections) {
+    if (s.round === round) current.set(s.section, s.data)
+    else if (s.round < round && carriedSections.includes(s.section)) {
+      const seen = carried.get(s.section)
+      if (!seen || s.round >= seen.round) carried.set(s.section, { round: s.round, data: s.data })
+    }
+  }
+  for (const [section, row] of carried) if (!current.has(section)) current.set(section, row.data)
 
   const input: PartInspectionInput = {}
   if (current.has('surface-prep'))

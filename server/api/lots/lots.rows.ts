@@ -96,6 +96,7 @@ export function toPartRow(p: Part): PartRow {
     coatedAreaM2: p.coatedAreaM2,
     sampled: p.sampled,
     round: p.round,
+    carriedSections: p.carriedSections ?? [],
     verdict: p.verdict,
     version: p.version,
   }

@@ -5,6 +5,7 @@ import { recordAudit, type AuditActor } from '../../audit/audit.service'
 import type { SpecContent } from '../../../shared/spec/specContent'
 import { recomputePartVerdict } from '../parts/partVerdict'
 import { setLotStatus } from '../review/lotLock'
+import { REPAIR_CARRIED_SECTIONS } from '../../../shared/inspection/assemblePartInput'
 
 /**
  * Repair-and-retest and strip-and-recoat reopen the affected parts' inspection: each part moves
@@ -17,9 +18,12 @@ export async function startRetestRound(
   actor: AuditActor,
   lot: Lot,
   spec: SpecContent,
-  nc: { id: number; number: string },
+  nc: { id: number; number: string; disposition: string | null },
   t: Transaction,
 ): Promise<void> {
+  // A touch-up keeps the original blast, climate, gauge set-up, cure and adhesion records;
+  // stripping the film starts the inspection from nothing.
+  const carried = nc.disposition === 'repair-retest' ? [...REPAIR_CARRIED_SECTIONS] : []
   const parts = await sequelize.query<{
     id: number
     round: number
@@ -36,9 +40,10 @@ export async function startRetestRound(
   for (const p of parts) {
     const round = p.round + 1
     await sequelize.query(
-      'UPDATE parts SET round = $2, version = version + 1, updated_at = now() WHERE id = $1',
+      `UPDATE parts SET round = $2, carried_sections = $3::text[], version = version + 1,
+         updated_at = now() WHERE id = $1`,
       {
-        bind: [p.id, round],
+        bind: [p.id, round, carried],
         transaction: t,
       },
     )

@@ -137,6 +137,16 @@ export async function getPartDetail(partId: number, t?: Transaction): Promise<Pa
     if (earlier) history.push(earlier)
     sections[r.section] = r
   }
+  // A repair round shows what it carries from the earlier round (its `round` says which).
+  for (const r of history) {
+    const now = sections[r.section]
+    if (!part.carriedSections.includes(r.section) || (now && now.round === part.round)) continue
+    if (!now || r.round >= now.round) sections[r.section] = r
+  }
+  for (const r of Object.values(sections)) {
+    const i = r ? history.indexOf(r) : -1
+    if (i >= 0) history.splice(i, 1)
+  }
   history.sort((a, b) => a.id - b.id)
   return { ...toPartRow(part), lotStatus: lot.status, spec, sections, history, readings }
 }

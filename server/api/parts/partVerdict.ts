@@ -2,6 +2,7 @@ import { QueryTypes, type Transaction } from 'sequelize'
 import { sequelize } from '../../db'
 import { evaluatePart, type PartVerdict } from '../../../shared/rules/evaluatePart'
 import type { SpecContent } from '../../../shared/spec/specContent'
+import type { SectionName } from '../../../shared/api/lots'
 import {
   assemblePartInput,
   partInfoFor,
@@ -22,12 +23,16 @@ export interface PartForVerdict {
 async function loadRows(partId: number, round: number, t: Transaction) {
   const [row] = await sequelize.query<{
     sections: SectionRowInput[] | null
+    carried: SectionName[] | null
     readings: ReadingRowInput[] | null
   }>(
     `SELECT
        (SELECT json_agg(json_build_object('section', s.section, 'round', s.round, 'data', s.data) ORDER BY s.id)
           FROM (SELECT DISTINCT ON (section) id, section, round, data FROM section_records
-                 WHERE part_id = $1 AND round = $2 ORDER BY section, id DESC) s) AS sections,
+                 WHERE part_id = $1 AND (round = $2 OR (round < $2 AND section = ANY(
+                   COALESCE((SELECT carried_sections FROM parts WHERE id = $1), '{}'))))
+                 ORDER BY section, round DESC, id DESC) s) AS sections,
+       (SELECT carried_sections FROM parts WHERE id = $1) AS carried,
        (SELECT json_agg(json_build_object('round', r.round, 'areaNo', r.area_no, 'spotNo', r.spot_no,
                  'thicknessUm', r.thickness_um, 'discarded', false, 'suspect', r.suspect,
                  'instrumentKind', i.kind) ORDER BY r.area_no, r.spot_no, r.id)
@@ -35,7 +40,11 @@ async function loadRows(partId: number, round: number, t: Transaction) {
          WHERE r.part_id = $1 AND r.round = $2 AND r.discarded_at IS NULL) AS readings`,
     { bind: [partId, round], type: QueryTypes.SELECT, transaction: t },
   )
-  return { sections: row?.sections ?? [], readings: row?.readings ?? [] }
+  return {
+    sections: row?.sections ?? [],
+    carried: row?.carried ?? [],
+    readings: row?.readings ?? [],
+  }
 }
 
 /** The verdict of a part from rows (no database): what the seed and the server both use. */
@@ -44,8 +53,9 @@ export function verdictFromRows(
   part: PartForVerdict,
   sections: readonly SectionRowInput[],
   readings: readonly ReadingRowInput[],
+  carriedSections: readonly SectionName[] = [],
 ): { verdict: PartVerdict; thicknessMeanUm: number | null } {
-  const input = assemblePartInput(spec.thickness.rule, part.round, sections, readings)
+  const input = assemblePartInput(spec.thickness.rule, part.round, sections, readings, carriedSections)
   return {
     verdict: evaluatePart(spec, partInfoFor(part), input),
     thicknessMeanUm: thicknessMeanUm(input),
@@ -62,8 +72,14 @@ export async function recomputePartVerdict(
   part: PartForVerdict,
   t: Transaction,
 ): Promise<PartVerdict> {
-  const { sections, readings } = await loadRows(part.id, part.round, t)
-  const { verdict, thicknessMeanUm: meanUm } = verdictFromRows(spec, part, sections, readings)
+  const { sections, carried, readings } = await loadRows(part.id, part.round, t)
+  const { verdict, thicknessMeanUm: meanUm } = verdictFromRows(
+    spec,
+    part,
+    sections,
+    readings,
+    carried,
+  )
   await sequelize.query(
     `UPDATE parts SET verdict = $2, verdict_status = $3, thickness_mean_um = $4,
        first_pass_status = CASE WHEN round = 1 THEN $3 ELSE first_pass_status END, updated_at = now()

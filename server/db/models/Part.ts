@@ -8,6 +8,7 @@ import {
 import { sequelize } from '../index'
 import type { PartVerdict } from '../../../shared/rules/evaluatePart'
 import type { OverallStatus } from '../../../shared/rules/verdict'
+import type { SectionName } from '../../../shared/api/lots'
 
 /** One part (or one row of identical pieces) of a lot, with its stored verdict for the current round. */
 export class Part extends Model<InferAttributes<Part>, InferCreationAttributes<Part>> {
@@ -26,6 +27,8 @@ export class Part extends Model<InferAttributes<Part>, InferCreationAttributes<P
   declare firstPassStatus: OverallStatus | null
   /** Mean of the non-discarded readings of the current round (BMR taken off), for trends. */
   declare thicknessMeanUm: number | null
+  /** Sections the current round carries from the earlier one (a repair round); empty otherwise. */
+  declare carriedSections: CreationOptional<SectionName[]>
   declare clientId: string
   declare version: CreationOptional<number>
   declare createdAt: CreationOptional<Date>
@@ -47,6 +50,7 @@ Part.init(
     verdictStatus: { type: DataTypes.TEXT, allowNull: true },
     firstPassStatus: { type: DataTypes.TEXT, allowNull: true },
     thicknessMeanUm: { type: DataTypes.DOUBLE, allowNull: true },
+    carriedSections: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: false, defaultValue: [] },
     clientId: { type: DataTypes.UUID, allowNull: false, unique: true },
     version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
     createdAt: DataTypes.DATE,
