@@ -9,6 +9,9 @@ import { BASE_URL, E2E_DB, E2E_PORT, SCREENSHOT_DIR, adminUrl, e2eDatabaseUrl } 
  * Teardown kills the server's whole process group, so no node process outlives the run.
  */
 const JWT_SECRET = 'e2e-only-secret-not-for-anything-else-0123456789'
+// One log per port, so parallel runs (E2E_PORT) do not write over each other's.
+const SERVER_LOG =
+  E2E_PORT === 5199 ? 'test-output/e2e-server.log' : `test-output/e2e-server-${E2E_PORT}.log`
 
 function serverEnv(): NodeJS.ProcessEnv {
   return {
@@ -27,6 +30,9 @@ function serverEnv(): NodeJS.ProcessEnv {
 }
 
 async function freshDatabase() {
+  // The name goes into DROP DATABASE unquoted, so only a plain identifier is accepted.
+  if (!/^[a-z_][a-z0-9_]*$/.test(E2E_DB))
+    throw new Error(`E2E_DB must be a plain identifier: ${E2E_DB}`)
   const client = new pg.Client({ connectionString: adminUrl() })
   try {
     await client.connect()
@@ -45,9 +51,7 @@ async function waitForHealth(child: ChildProcess, timeoutMs = 30_000) {
   const deadline = Date.now() + timeoutMs
   while (Date.now() < deadline) {
     if (child.exitCode !== null)
-      throw new Error(
-        `The e2e server exited with code ${child.exitCode}; see test-output/e2e-server.log`,
-      )
+      throw new Error(`The e2e server exited with code ${child.exitCode}; see ${SERVER_LOG}`)
     try {
       const res = await fetch(`${BASE_URL}/api/health`)
       if (res.ok) return
@@ -97,7 +101,7 @@ export default async function setup() {
   // `npm test` builds the client first; a lone `vitest --project e2e` builds it here.
   if (!existsSync('dist/index.html')) execFileSync('npx', ['vite', 'build'], { stdio: 'inherit' })
 
-  const log = openSync('test-output/e2e-server.log', 'w')
+  const log = openSync(SERVER_LOG, 'w')
   const child = spawn('npx', ['tsx', 'server/index.ts'], {
     env,
     detached: true,
