@@ -34,9 +34,10 @@ export async function api<T>(
 /**
  * The operator's retest of a repaired part, through the API with the operator's own token: the
  * floor screens record one section at a time by touch, which is the line-tablet test's subject.
- * Round 2 repeats round 1's prep, climate, gauge, cure and adhesion records (same instruments),
- * takes 5 spots × 3 readings inside the band, and records the holiday test at the voltage the
- * verdict now asks for (NACE SP0490 follows the measured mean, so it is read back, not guessed).
+ * A repair round carries the round-1 records the repair does not touch (the part's
+ * carriedSections); whatever is not carried is recorded again with round 1's data and
+ * instruments. Then 5 spots × 3 readings inside the band, and the holiday test at the voltage
+ * the verdict now asks for (NACE SP0490 follows the measured mean, so it is read back).
  */
 export async function recordRetestByApi(
   token: string,
@@ -46,7 +47,9 @@ export async function recordRetestByApi(
   const before = (await api<PartDetail>(token, 'GET', `/api/parts/${partId}`)).data
   expect(before.round, 'the repair opened round 2').toBe(2)
   const round1 = new Map<SectionName, SectionRecordRow>()
-  for (const r of before.history) if (r.round === 1) round1.set(r.section, r)
+  for (const r of [...before.history, ...Object.values(before.sections)]) {
+    if (r && r.round === 1) round1.set(r.section, r)
+  }
   const put = async (section: SectionName, data: unknown, instrumentId: number | null) => {
     const r = await api<PartDetail>(token, 'PUT', `/api/parts/${partId}/sections/${section}`, {
       clientId: crypto.randomUUID(),
@@ -58,7 +61,7 @@ export async function recordRetestByApi(
   }
   for (const s of ['surface-prep', 'climate', 'thickness-gauge', 'cure', 'adhesion'] as const) {
     const r = round1.get(s)
-    if (r) await put(s, r.data, r.instrumentId)
+    if (r && !before.carriedSections.includes(s)) await put(s, r.data, r.instrumentId)
   }
   const gauge = round1.get('thickness-gauge')!.instrumentId!
   const readings = spotsUm.flatMap((spot, i) =>
