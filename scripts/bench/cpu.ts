@@ -1,0 +1,58 @@
+/**
+ * CPU time spent by the server process and by the PostgreSQL backends during a load, from
+ * /proc (Linux). On a shared, busy machine wall-clock figures swing with the neighbours; CPU
+ * milliseconds per request barely do, so they say where the time goes (node or the database)
+ * and whether a change helped.
+ */
+import { readFileSync, readdirSync } from 'node:fs'
+
+const TICK_MS = 10 // USER_HZ is 100 on Linux
+
+function statOf(pid: number): { ppid: number; cpuMs: number } | null {
+  try {
+    const s = readFileSync(`/proc/${pid}/stat`, 'utf8')
+    const f = s.slice(s.lastIndexOf(')') + 2).split(' ')
+    // fields after the name: state ppid ... utime(12) stime(13) (1-based after the name: 14, 15)
+    return { ppid: Number(f[1]), cpuMs: (Number(f[11]) + Number(f[12])) * TICK_MS }
+  } catch {
+    return null
+  }
+}
+
+export function processCpuMs(pid: number): number {
+  return statOf(pid)?.cpuMs ?? NaN
+}
+
+/** CPU of every child of the postmaster (the backends, and the background processes). */
+export function postgresCpuMs(postmasterPid: number): number {
+  let total = 0
+  for (const name of readdirSync('/proc')) {
+    if (!/^\d+$/.test(name)) continue
+    const st = statOf(Number(name))
+    if (st && st.ppid === postmasterPid) total += st.cpuMs
+  }
+  return total
+}
+
+export function postmasterPidOf(dataDir: string): number {
+  return Number(readFileSync(`${dataDir}/postmaster.pid`, 'utf8').split('\n')[0])
+}
+
+export interface CpuSpan {
+  /** CPU ms per request, server process and PostgreSQL. */
+  end(requests: number): { serverMsPerReq: number; postgresMsPerReq: number }
+}
+
+export function cpuSpan(serverPid: number, postmasterPid: number): CpuSpan {
+  const s0 = processCpuMs(serverPid)
+  const p0 = postgresCpuMs(postmasterPid)
+  return {
+    end(requests: number) {
+      // a backend that exited during the span takes its CPU with it: slightly low, never high
+      return {
+        serverMsPerReq: (processCpuMs(serverPid) - s0) / requests,
+        postgresMsPerReq: (postgresCpuMs(postmasterPid) - p0) / requests,
+      }
+    },
+  }
+}
