@@ -1,11 +1,20 @@
 import passport from 'passport'
 import jwt from 'jsonwebtoken'
+import { createSecretKey } from 'node:crypto'
 import { ExtractJwt, Strategy as JwtStrategy } from 'passport-jwt'
 import type { NextFunction, Request, Response } from 'express'
 import { env } from '../config/env'
 import { HttpError } from '../lib/httpError'
 import { User } from '../db/models'
+import { findSignedInUser } from './userCache'
 import type { SessionUser } from '../../shared/api/auth'
+
+/**
+ * The HMAC key as a KeyObject, made once. Given a string, jsonwebtoken first tries to read it
+ * as a PEM public key (and throws) before making a secret key, on every sign and every verify:
+ * that cost more than the rest of sign-in checking together. Same bytes, same signatures.
+ */
+const jwtKey = createSecretKey(Buffer.from(env.jwtSecret, 'utf8'))
 
 interface TokenClaims {
   sub: string
@@ -16,7 +25,8 @@ passport.use(
   new JwtStrategy(
     {
       jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
-      secretOrKey: env.jwtSecret,
+      // passport-jwt hands the key to jsonwebtoken untouched; its types just predate KeyObject
+      secretOrKey: jwtKey as unknown as Buffer,
       algorithms: ['HS256'],
     },
     (claims: TokenClaims, done: (err: unknown, user?: User | false) => void) => {
@@ -25,7 +35,7 @@ passport.use(
       const userId = Number(claims.sub)
       if (!/^[1-9]\d{0,9}$/.test(String(claims.sub)) || userId > 2147483647)
         return done(null, false)
-      User.findByPk(userId)
+      findSignedInUser(userId)
         .then((user) => {
           // A deactivated user, or a token issued before a password reset, no longer signs in.
           if (!user || !user.active || user.tokenVersion !== claims.tv) return done(null, false)
@@ -37,7 +47,7 @@ passport.use(
 )
 
 export function signToken(user: User): string {
-  return jwt.sign({ tv: user.tokenVersion }, env.jwtSecret, {
+  return jwt.sign({ tv: user.tokenVersion }, jwtKey, {
     algorithm: 'HS256',
     subject: String(user.id),
     expiresIn: env.JWT_TTL_SECONDS,

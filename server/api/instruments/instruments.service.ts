@@ -4,6 +4,7 @@ import { inTransaction } from '../../db'
 import { Instrument } from '../../db/models'
 import { recordAudit, snapshot, type AuditActor } from '../../audit/audit.service'
 import { HttpError, conflict, notFound } from '../../lib/httpError'
+import { RowCache } from '../../lib/rowCache'
 import { INSTRUMENT_KIND_LABELS, type InstrumentKind } from '../../../shared/api/instruments'
 import {
   calibrationState,
@@ -144,6 +145,14 @@ function kindNames(kinds: readonly InstrumentKind[]): string {
 }
 
 /**
+ * Gauges are checked on every readings batch: their rows are kept for a few seconds (dropped at
+ * once on any change made through the app in this process; another process's change is seen
+ * within INSTRUMENT_CACHE_MS — see RowCache).
+ */
+const INSTRUMENT_CACHE_MS = 5000
+const usableCheckRows = new RowCache(Instrument, INSTRUMENT_CACHE_MS)
+
+/**
  * For the readings feature: refuses a reading taken with an instrument that is unknown (400),
  * of the wrong kind (400), retired (409) or out of calibration on the reading's date (409).
  * `atDate` is the day the reading was taken (a Date, or YYYY-MM-DD); `field` names the input in the
@@ -156,7 +165,7 @@ export async function assertInstrumentUsable(
   t?: Transaction,
   field = 'body.instrumentId',
 ): Promise<Instrument> {
-  const instrument = await Instrument.findByPk(instrumentId, { transaction: t })
+  const instrument = await usableCheckRows.get(instrumentId, t)
   const fieldError = (status: number, code: string, message: string) =>
     new HttpError(status, code, message, [{ field, message }])
   if (!instrument)
