@@ -67,12 +67,34 @@ const LABELS: Record<CriterionResult['criterion'], string> = {
   adhesion: 'adhesion',
 }
 
+/**
+ * Specs already run through specContentSchema and frozen, so they cannot have changed since:
+ * evaluatePart skips parsing them again (the server judges a part after every write, always
+ * against the same few cached spec versions, and the parse was most of the rules' time).
+ */
+const parsedSpecs = new WeakSet<object>()
+
+function deepFreeze<T>(value: T): T {
+  if (value && typeof value === 'object' && !Object.isFrozen(value)) {
+    Object.freeze(value)
+    for (const v of Object.values(value)) deepFreeze(v)
+  }
+  return value
+}
+
+/** Parses `spec` once, freezes the result and lets evaluatePart trust it from then on. */
+export function parsedSpecForRules(spec: unknown): SpecContent {
+  const parsed = deepFreeze(parseOrThrow<SpecContent>(specContentSchema, spec, 'spec'))
+  parsedSpecs.add(parsed)
+  return parsed
+}
+
 export function evaluatePart(
   spec: SpecContent,
   part: PartInfo,
   input: PartInspectionInput,
 ): PartVerdict {
-  const s = parseOrThrow<SpecContent>(specContentSchema, spec, 'spec')
+  const s = parsedSpecs.has(spec) ? spec : parseOrThrow<SpecContent>(specContentSchema, spec, 'spec')
   const rec = parseOrThrow<PartInspectionInput>(partInspectionInputSchema, input, '')
   const info: PartInfo = { ...part }
   if (part.coatedAreaFt2 !== undefined && part.coatedAreaFt2 !== null) {

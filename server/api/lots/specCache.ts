@@ -1,6 +1,7 @@
 import type { Transaction } from 'sequelize'
 import { getSpecVersion } from '../specs/specs.service'
 import { specContentSchema, type SpecContent } from '../../../shared/spec/specContent'
+import { parsedSpecForRules } from '../../../shared/rules/evaluatePart'
 
 /**
  * Spec version content by (specId, version). A version a lot uses is locked and never changes
@@ -18,7 +19,8 @@ export async function specContentFor(
   if (hit) return hit
   const row = await getSpecVersion(specId, version, t)
   // Defaults filled in once, so every reader (and the rules) sees the same complete content.
-  const content = specContentSchema.parse(row.content)
+  // A locked version is frozen and parsed once for the rules too (evaluatePart trusts it).
+  const content = row.lockedAt ? parsedSpecForRules(row.content) : specContentSchema.parse(row.content)
   if (row.lockedAt) cache.set(key, content)
   return content
 }
