@@ -209,8 +209,10 @@ export async function writeParts(
   await insertMany(
     t,
     'audit_events',
-    ['actor_id', 'action', 'entity_type', 'entity_id', 'lot_id', 'after', 'note'],
+    // Dated when the lot was opened, so a lot's history reads in the order things happened.
+    ['at', 'actor_id', 'action', 'entity_type', 'entity_id', 'lot_id', 'after', 'note'],
     lots.map((lot, i) => [
+      openedAt[i]!,
       null,
       'lot.open',
       'lot',
