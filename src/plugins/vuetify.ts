@@ -27,6 +27,9 @@ export const filmtrailLight: ThemeDefinition = {
     warning: '#8F5B00',
     info: '#2C5F8A',
   },
+  // Vuetify's 0.60 puts hints, subtitles and field labels at 4.3:1 on white (axe, WCAG 1.4.3 AA
+  // needs 4.5:1); 0.70 gives about 5.9:1 on white and 5.3:1 on the paper background.
+  variables: { 'medium-emphasis-opacity': 0.7 },
 }
 
 export const vuetify = createVuetify({
