@@ -1,6 +1,7 @@
 import { describe, it, expect, beforeAll } from 'vitest'
 import request from 'supertest'
 import { createApp } from '../../../server/app'
+import { DefectType } from '../../../server/db/models'
 import { lotBody, partBody } from '../floor/floorSupport'
 import { reviewWorld, type ReviewWorld } from '../review/reviewSupport'
 import { SCRIPT, SQL } from './badInputEngine'
@@ -60,14 +61,14 @@ describe('script- and SQL-shaped text is stored verbatim and answered as JSON', 
       .set('Authorization', w.operator.auth)
       .send({ clientId: crypto.randomUUID(), data: { text: HOSTILE_TEXT } })
     expect(note.status).toBeLessThan(300)
-    const types = await request(app).get('/api/defect-types').set('Authorization', admin)
+    const type = await DefectType.create({ code: 'xss-run', label: 'Run' })
     const nc = await request(app)
       .post('/api/nonconformances')
       .set('Authorization', w.supervisor.auth)
       .send({
         lotId: lot.body.id,
         partIds: [partId],
-        defectTypeId: types.body[0].id,
+        defectTypeId: type.id,
         description: HOSTILE_TEXT,
       })
     expect(nc.status).toBe(201)
