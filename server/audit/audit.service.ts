@@ -1,5 +1,5 @@
-import { QueryTypes, type Transaction } from 'sequelize'
-import { sequelize } from '../db'
+import type { Transaction } from 'sequelize'
+import { preparedQuery } from '../db/prepared'
 
 export interface AuditActor {
   id: number
@@ -34,28 +34,24 @@ export function snapshot(record: unknown): unknown {
  */
 export async function recordAudit(t: Transaction, actor: AuditActor | null, entry: AuditEntry) {
   // Plain SQL rather than AuditEvent.create: every write of the product lands here, and building
-  // and validating a model instance cost more than the INSERT itself. Same columns, same values
-  // (`at` is this server's clock, as the model's default was).
+  // and validating a model instance cost more than the INSERT itself; prepared once per
+  // connection. Same columns, same values (`at` is this server's clock, as the model's default was).
   const json = (v: unknown) => {
     const plain = v === undefined ? null : snapshot(v)
     return plain === null ? null : JSON.stringify(plain) // SQL NULL, not JSON null, for "none"
   }
-  await sequelize.query(INSERT_AUDIT_EVENT, {
-    bind: [
-      new Date(),
-      actor?.id ?? null,
-      actor?.email ?? null,
-      entry.action,
-      entry.entityType,
-      String(entry.entityId),
-      entry.lotId ?? null,
-      json(entry.before),
-      json(entry.after),
-      entry.note ?? '',
-    ],
-    type: QueryTypes.INSERT,
-    transaction: t,
-  })
+  await preparedQuery(t, 'audit_event_insert', INSERT_AUDIT_EVENT, [
+    new Date(),
+    actor?.id ?? null,
+    actor?.email ?? null,
+    entry.action,
+    entry.entityType,
+    String(entry.entityId),
+    entry.lotId ?? null,
+    json(entry.before),
+    json(entry.after),
+    entry.note ?? '',
+  ])
 }
 
 const INSERT_AUDIT_EVENT = `

@@ -1,5 +1,5 @@
-import { QueryTypes, type Transaction } from 'sequelize'
-import { sequelize } from '../../db'
+import type { Transaction } from 'sequelize'
+import { preparedQuery } from '../../db/prepared'
 import { notFound } from '../../lib/httpError'
 import type { LotStatus } from '../../../shared/api/lots'
 import type { SpecContent } from '../../../shared/spec/specContent'
@@ -23,7 +23,7 @@ export interface LockedPart extends PartForVerdict {
  * feature must use too.
  */
 export async function lockPartForWrite(partId: number, t: Transaction): Promise<LockedPart> {
-  const [row] = await sequelize.query<{
+  const [row] = await preparedQuery<{
     id: number
     lot_id: number
     round: number
@@ -36,12 +36,14 @@ export async function lockPartForWrite(partId: number, t: Transaction): Promise<
     spec_id: number
     spec_version: number
   }>(
+    t,
+    'part_lock_for_write',
     `SELECT p.id, p.lot_id, p.round, p.part_number, p.heat_number, p.coated_area_m2, p.version,
             l.lot_number, l.status, l.spec_id, l.spec_version
        FROM lots l JOIN parts p ON p.lot_id = l.id
       WHERE p.id = $1
       FOR SHARE OF l FOR UPDATE OF p`,
-    { bind: [partId], type: QueryTypes.SELECT, transaction: t },
+    [partId],
   )
   if (!row) throw notFound(`Part #${partId}`)
   return {

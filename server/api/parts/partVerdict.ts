@@ -1,5 +1,5 @@
-import { QueryTypes, type Transaction } from 'sequelize'
-import { sequelize } from '../../db'
+import type { Transaction } from 'sequelize'
+import { preparedQuery } from '../../db/prepared'
 import { evaluatePart, type PartVerdict } from '../../../shared/rules/evaluatePart'
 import type { SpecContent } from '../../../shared/spec/specContent'
 import type { SectionName } from '../../../shared/api/lots'
@@ -21,11 +21,13 @@ export interface PartForVerdict {
 
 /** The part's current sections and live readings, in one round trip. */
 async function loadRows(partId: number, round: number, t: Transaction) {
-  const [row] = await sequelize.query<{
+  const [row] = await preparedQuery<{
     sections: SectionRowInput[] | null
     carried: SectionName[] | null
     readings: ReadingRowInput[] | null
   }>(
+    t,
+    'part_verdict_rows',
     `SELECT
        (SELECT json_agg(json_build_object('section', s.section, 'round', s.round, 'data', s.data) ORDER BY s.id)
           FROM (SELECT DISTINCT ON (section) id, section, round, data FROM section_records
@@ -38,7 +40,7 @@ async function loadRows(partId: number, round: number, t: Transaction) {
                  'instrumentKind', i.kind) ORDER BY r.area_no, r.spot_no, r.id)
           FROM gauge_readings r JOIN instruments i ON i.id = r.instrument_id
          WHERE r.part_id = $1 AND r.round = $2 AND r.discarded_at IS NULL) AS readings`,
-    { bind: [partId, round], type: QueryTypes.SELECT, transaction: t },
+    [partId, round],
   )
   return {
     sections: row?.sections ?? [],
@@ -55,7 +57,13 @@ export function verdictFromRows(
   readings: readonly ReadingRowInput[],
   carriedSections: readonly SectionName[] = [],
 ): { verdict: PartVerdict; thicknessMeanUm: number | null } {
-  const input = assemblePartInput(spec.thickness.rule, part.round, sections, readings, carriedSections)
+  const input = assemblePartInput(
+    spec.thickness.rule,
+    part.round,
+    sections,
+    readings,
+    carriedSections,
+  )
   return {
     verdict: evaluatePart(spec, partInfoFor(part), input),
     thicknessMeanUm: thicknessMeanUm(input),
@@ -80,11 +88,13 @@ export async function recomputePartVerdict(
     readings,
     carried,
   )
-  await sequelize.query(
+  await preparedQuery(
+    t,
+    'part_verdict_store',
     `UPDATE parts SET verdict = $2, verdict_status = $3, thickness_mean_um = $4,
        first_pass_status = CASE WHEN round = 1 THEN $3 ELSE first_pass_status END, updated_at = now()
      WHERE id = $1`,
-    { bind: [part.id, JSON.stringify(verdict), verdict.status, meanUm], transaction: t },
+    [part.id, JSON.stringify(verdict), verdict.status, meanUm],
   )
   return verdict
 }

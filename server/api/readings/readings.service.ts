@@ -1,6 +1,7 @@
 import { QueryTypes, type Transaction } from 'sequelize'
 import type { z } from 'zod'
 import { inTransaction, sequelize } from '../../db'
+import { preparedQuery } from '../../db/prepared'
 import { recordAudit, type AuditActor } from '../../audit/audit.service'
 import { HttpError, conflict } from '../../lib/httpError'
 import type { ReadingRow, ReadingsBatchResult, readingSchema } from '../../../shared/api/lots'
@@ -119,28 +120,24 @@ export async function postReadings(
       if (rows) return replayAnswer(rows)
       throw err
     }
-    const inserted = await sequelize.query<{
+    const inserted = await preparedQuery<{
       id: string
       client_id: string
       suspect: boolean
       taken_at: Date
       recorded_at: Date
-    }>(INSERT_READINGS, {
-      bind: [
-        part.id,
-        part.lotId,
-        part.round,
-        actor.id,
-        readings.map((r) => r.areaNo),
-        readings.map((r) => r.spotNo),
-        readings.map((r) => r.thicknessUm),
-        readings.map((r) => r.instrumentId),
-        readings.map((r) => r.takenAt ?? null),
-        readings.map((r) => r.clientId),
-      ],
-      type: QueryTypes.SELECT,
-      transaction: t,
-    })
+    }>(t, 'readings_insert', INSERT_READINGS, [
+      part.id,
+      part.lotId,
+      part.round,
+      actor.id,
+      readings.map((r) => r.areaNo),
+      readings.map((r) => r.spotNo),
+      readings.map((r) => r.thicknessUm),
+      readings.map((r) => r.instrumentId),
+      readings.map((r) => r.takenAt ?? null),
+      readings.map((r) => r.clientId),
+    ])
     if (inserted.length < readings.length) {
       const foreign = await sequelize.query(FOREIGN_CLIENT_IDS, {
         bind: [readings.map((r) => r.clientId), part.id],
