@@ -26,6 +26,7 @@ import { measureCertificatePdf } from './pdf'
 import { measureClientSize } from './clientSize'
 import { printTable, summarise, writeJson, type MetricDef } from './report'
 import { cpuSpan, postmasterPidOf } from './cpu'
+import { startSmtpSink } from './smtpSink'
 
 const { values: args } = parseArgs({
   options: {
@@ -74,8 +75,10 @@ say(
 
 let cluster: Cluster | null = null
 let server: RunningServer | null = null
+let smtp: Awaited<ReturnType<typeof startSmtpSink>> | null = null
 const stopAll = async () => {
   await server?.stop().catch(() => {})
+  await smtp?.stop()
   if (cluster && !args.keep) cluster.stop()
 }
 process.on('SIGINT', () => void stopAll().then(() => process.exit(130)))
@@ -108,6 +111,17 @@ try {
         env: { ...process.env, NODE_ENV: 'development', DATABASE_URL: dbUrl, LOG_LEVEL: 'warn' },
       },
     )
+  } else {
+    // an already filled database may predate the newest migrations
+    execFileSync('node', ['--import', 'tsx', 'server/cli/migrate.ts'], {
+      stdio: 'inherit',
+      env: {
+        ...process.env,
+        NODE_ENV: 'development',
+        DATABASE_URL: dbUrl,
+        JWT_SECRET: 'x'.repeat(40),
+      },
+    })
   }
   await prepareDatabase(dbUrl)
   const history = await countHistory(dbUrl)
@@ -121,6 +135,7 @@ try {
     LOG_LEVEL: 'warn',
     NODE_ENV: 'production',
   })
+  smtp = await startSmtpSink()
   server = await startServer({
     port: APP_PORT,
     databaseUrl: dbUrl,
@@ -133,8 +148,7 @@ try {
       CLIENT_DIST: CLIENT_OUT,
       LOGIN_RATE_LIMIT: '1000',
       BENCH_BARE_ROUTE: '1',
-      // nothing listens there: no certificate is issued during the bench
-      SMTP_PORT: '2599',
+      SMTP_PORT: String(smtp.port),
     },
     nodeFlags: args['cpu-prof'] ? ['--cpu-prof', '--cpu-prof-dir=bench-out/prof'] : [],
   })
