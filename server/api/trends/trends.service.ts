@@ -17,6 +17,10 @@ export async function trendsReport(input: TrendsFilter): Promise<TrendsReport> {
   const sql = filterSql(filter)
   const summaryP = loadSummary(sql)
   const paretoP = loadPareto(sql)
+  // When the summary fails first, the Pareto's failure is never awaited: without this it would
+  // be an unhandled rejection, which ends the whole server process (the request still gets the
+  // summary's error).
+  paretoP.catch(() => {})
   const summary = await summaryP
   const chosen = filter.specId
     ? summary.specChoices.find((s) => s.specId === filter.specId)
