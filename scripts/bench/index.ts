@@ -82,6 +82,11 @@ const stopAll = async () => {
   if (cluster && !args.keep) cluster.stop()
 }
 process.on('SIGINT', () => void stopAll().then(() => process.exit(130)))
+// Whatever goes wrong, the server and the cluster do not outlive the bench.
+process.on('unhandledRejection', (err) => {
+  console.error(err)
+  void stopAll().then(() => process.exit(2))
+})
 process.on('SIGTERM', () => void stopAll().then(() => process.exit(143)))
 
 try {
