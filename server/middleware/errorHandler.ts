@@ -1,5 +1,11 @@
 import type { NextFunction, Request, Response } from 'express'
-import { ValidationError, UniqueConstraintError, ForeignKeyConstraintError, ConnectionError } from 'sequelize'
+import {
+  ValidationError,
+  UniqueConstraintError,
+  ForeignKeyConstraintError,
+  ConnectionError,
+  DatabaseError,
+} from 'sequelize'
 import { HttpError } from '../lib/httpError'
 import { logger } from '../lib/logger'
 import { env } from '../config/env'
@@ -13,11 +19,19 @@ function isRuleInputError(err: unknown): err is Error & { field?: string } {
   return err instanceof Error && err.name === 'RuleInputError'
 }
 
+/**
+ * PostgreSQL's "this value does not fit" codes: number out of range (22003), no such date or time
+ * (22007, 22008), text that is no number (22P02). A schema should have refused the value; when
+ * one misses a limit, the client still gets a 400, and the log says which query it was.
+ */
+const PG_BAD_VALUE = new Set(['22003', '22007', '22008', '22P02'])
+
 /** The one place an error becomes a response: `{ error: { code, message, details? } }`. */
 export function errorHandler(err: unknown, req: Request, res: Response, _next: NextFunction) {
   let status = 500
   let code = 'internal'
-  let message = 'Something went wrong on the server; nothing was saved. Try again, and tell an admin if it repeats.'
+  let message =
+    'Something went wrong on the server; nothing was saved. Try again, and tell an admin if it repeats.'
   let details: unknown
   const e = err as { status?: number; type?: string; message?: string }
   if (err instanceof HttpError) {
@@ -41,6 +55,17 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
     status = 400
     code = 'invalid_reference'
     message = 'A referenced record does not exist'
+  } else if (
+    err instanceof DatabaseError &&
+    PG_BAD_VALUE.has((err.parent as { code?: string }).code ?? '')
+  ) {
+    status = 400
+    code = 'invalid_input'
+    message = 'A value is out of range here (a number too large, or a date that does not exist)'
+    logger.warn(
+      { err, method: req.method, url: req.originalUrl },
+      'a value passed validation but not PostgreSQL',
+    )
   } else if (err instanceof ConnectionError) {
     status = 503
     code = 'database_unavailable'
@@ -58,10 +83,12 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
     code = 'bad_request'
     message = e.message ?? 'Bad request'
   }
-  if (status >= 500) logger.error({ err, method: req.method, url: req.originalUrl }, 'request failed')
+  if (status >= 500)
+    logger.error({ err, method: req.method, url: req.originalUrl }, 'request failed')
   const body: { error: { code: string; message: string; details?: unknown; stack?: string } } = {
     error: { code, message, ...(details === undefined ? {} : { details }) },
   }
-  if (status >= 500 && env.NODE_ENV === 'development' && err instanceof Error) body.error.stack = err.stack
+  if (status >= 500 && env.NODE_ENV === 'development' && err instanceof Error)
+    body.error.stack = err.stack
   res.status(status).json(body)
 }

@@ -75,7 +75,7 @@ export interface CertificateData {
 export const certificateListQuerySchema = z.object({
   /** Order, lot, part or heat number, or the certificate number; part of it is enough. */
   q: z.string().trim().max(100).optional(),
-  customerId: z.coerce.number().int().positive().optional(),
+  customerId: z.coerce.number().int().positive().max(2147483647).optional(),
   state: z.enum(['valid', 'superseded', 'revoked']).optional(),
   limit: z.coerce.number().int().min(1).max(200).default(50),
   offset: z.coerce.number().int().min(0).default(0),

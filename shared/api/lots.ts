@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { isoDateSchema } from './isoDate'
 import { partInspectionInputSchema } from '../rules/partInput'
 import type { PartVerdict } from '../rules/evaluatePart'
 import type { SpecContent } from '../spec/specContent'
@@ -53,7 +54,7 @@ export const SECTIONS = [
 export type SectionName = (typeof SECTIONS)[number]
 
 const clientId = z.string().uuid('clientId must be a UUID made on the device')
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date as YYYY-MM-DD')
+const isoDate = isoDateSchema
 const text = (max: number) => z.string().trim().max(max)
 
 export const partBodySchema = z.object({
@@ -101,7 +102,7 @@ export const updateLotSchema = createLotSchema
 export const lotListQuerySchema = z.object({
   status: z.enum(LOT_STATUSES).optional(),
   line: z.enum(LINES).optional(),
-  customerId: z.coerce.number().int().positive().optional(),
+  customerId: z.coerce.number().int().positive().max(2147483647).optional(),
   from: isoDate.optional(),
   to: isoDate.optional(),
   q: text(100).optional(),

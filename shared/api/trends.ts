@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { isoDateSchema } from './isoDate'
 import { LINES, SHIFTS, type Line, type Shift } from './lots'
 import type { Role } from './roles'
 
@@ -35,7 +36,7 @@ export const CONTROL_CHART_MAX_POINTS = 200
 /** Longest period one request may ask for (a little over two years). */
 export const MAX_PERIOD_DAYS = 800
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date as YYYY-MM-DD')
+const isoDate = isoDateSchema
 
 export const trendsFilterSchema = z
   .object({

@@ -1,5 +1,6 @@
 import { QueryTypes } from 'sequelize'
 import { z } from 'zod'
+import { isoDateSchema } from '../../../shared/api/isoDate'
 import { sequelize } from '../../db'
 import { Lot } from '../../db/models'
 import { notFound } from '../../lib/httpError'
@@ -8,7 +9,7 @@ import type { AuditEventRow } from '../../../shared/api/review'
 /** An audit event with the actor's name, so a lot's history reads as a story. */
 export type AuditEntry = AuditEventRow & { actorName: string | null }
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date as YYYY-MM-DD')
+const isoDate = isoDateSchema
 
 export const auditQuerySchema = z.object({
   actorId: z.coerce.number().int().positive().max(2147483647).optional(),

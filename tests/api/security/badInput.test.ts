@@ -2,6 +2,7 @@ import { describe, it, expect, beforeAll } from 'vitest'
 import { createApp } from '../../../server/app'
 import { routeTable } from '../../../server/api/secureRouter'
 import { sequelize } from '../../../server/db'
+import { lotBody } from '../floor/floorSupport'
 import {
   GOOD_SPOTS_UM,
   decide,
@@ -164,6 +165,71 @@ describe('hostile ids in the path', () => {
       expect(problems).toEqual([])
     })
   }
+})
+
+describe('hostile query strings on every read route', () => {
+  // The filters the list and report routes take; a route ignores (strips) those it does not know.
+  const KEYS = ['q', 'limit', 'offset', 'from', 'to', 'customerId', 'specId', 'lotId', 'actorId']
+  const KEYS_MORE = ['status', 'state', 'line', 'shift', 'entityId', 'lotNumber', 'subgroupSize']
+  const VALUES = [
+    'NaN',
+    'Infinity',
+    '-1',
+    '1e308',
+    '2147483648',
+    '9007199254740993',
+    "'; DROP TABLE lots; --",
+    '%3Cscript%3E',
+    'x'.repeat(4000),
+    '2026-02-30',
+    '',
+  ]
+  const reads = routeTable.filter((r) => r.method === 'get')
+  for (const route of reads) {
+    it(routeKey(route), async () => {
+      const path = fillPath(route.path, world.ids)
+      const problems: string[] = []
+      for (const key of [...KEYS, ...KEYS_MORE]) {
+        for (const value of VALUES) {
+          const res = await send(app, 'get', `${path}?${key}=${value}`, authFor(route), '')
+          // CSV and PDF answer their own type when the filter is fine; a refusal is JSON.
+          if (res.status >= 500)
+            problems.push(`${key}=${value.slice(0, 30)} → ${res.status} ${res.text.slice(0, 160)}`)
+          else if (res.status >= 400 && typeof res.body?.error?.code !== 'string')
+            problems.push(`${key}=${value.slice(0, 30)} → ${res.status} without the error body`)
+        }
+      }
+      // Twice the same key (Express makes it an array).
+      const twice = await send(app, 'get', `${path}?limit=5&limit=6&q=a&q=b`, authFor(route), '')
+      if (twice.status >= 500) problems.push(`repeated keys → ${twice.status}`)
+      expect(problems).toEqual([])
+    })
+  }
+})
+
+describe('impossible dates and ids beyond int4 name the field', () => {
+  it('list filters', async () => {
+    const auth = world.auth.admin
+    const cases: [string, string][] = [
+      ['/api/lots?from=2026-02-30', 'query.from: No such calendar date'],
+      ['/api/audit?to=2026-13-01', 'query.to: No such calendar date'],
+      ['/api/trends?from=2026-02-29', 'query.from: No such calendar date'],
+      ['/api/lots?customerId=2147483648', 'query.customerId'],
+      ['/api/certificates?customerId=2147483648', 'query.customerId'],
+    ]
+    for (const [path, message] of cases) {
+      const res = await send(app, 'get', path, auth, '')
+      expect(res.status, path).toBe(400)
+      expect(res.body.error.message, path).toContain(message)
+    }
+  })
+
+  it('a lot whose powder batch expires on 31 April', async () => {
+    const body = lotBody(world.ids.customer, world.ids.spec, { batchExpiresOn: '2027-04-31' })
+    const res = await send(app, 'post', '/api/lots', world.auth.operator, JSON.stringify(body))
+    expect(res.status).toBe(400)
+    expect(res.body.error.message).toBe('body.batchExpiresOn: No such calendar date')
+  })
 })
 
 describe('afterwards', () => {

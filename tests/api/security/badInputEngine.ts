@@ -28,6 +28,8 @@ export const HOSTILE: { label: string; value?: unknown; raw?: string }[] = [
   { label: '[]', value: [] },
   { label: '{}', value: {} },
   { label: '""', value: '' },
+  { label: 'an impossible date', value: '2026-02-30' },
+  { label: 'max int4', value: 2147483647 },
 ]
 
 /** Malformed JSON texts sent with Content-Type: application/json. */

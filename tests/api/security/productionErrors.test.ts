@@ -59,6 +59,20 @@ describe('production error bodies carry no stack and no internals', () => {
     }
   })
 
+  it('a value PostgreSQL refuses (beyond int4, no such date) is a 400 even where a schema missed it', async () => {
+    const tiny = express()
+    tiny.get('/int', async () => sequelize.query('SELECT 2147483648::int4'))
+    tiny.get('/date', async () => sequelize.query("SELECT '2026-02-30'::date"))
+    tiny.use(errorHandler)
+    for (const path of ['/int', '/date']) {
+      const res = await request(tiny).get(path)
+      expect(res.status, path).toBe(400)
+      expect(res.body.error.code).toBe('invalid_input')
+      expect(res.body.error.message).toMatch(/out of range here/)
+      expect(res.text).not.toMatch(/SELECT|int4|::/)
+    }
+  })
+
   it('4xx answers stay as helpful as in development', async () => {
     const res = await request(app).post('/api/users').set('Authorization', auth).send({})
     expect(res.status).toBe(400)
