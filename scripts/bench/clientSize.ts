@@ -2,8 +2,8 @@
  * client_initial_kb_gzip: the JavaScript and CSS the browser fetches to show the sign-in page and
  * then, signed in as the operator, the operator's first page — measured by loading both pages in
  * Debian's Chromium (playwright-core) from the real server and gzip-compressing (level 6, what a
- * compressing proxy sends) every script and stylesheet it received. Fonts and images are not
- * counted; each file is counted once.
+ * compressing proxy sends) every script and stylesheet it received — the floor views the line
+ * pages prefetch for offline use included. Fonts and images are not counted; each file once.
  */
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
@@ -58,6 +58,10 @@ export async function measureClientSize(
     await page.getByLabel('Password', { exact: true }).fill(password)
     await page.getByRole('button', { name: 'Sign in' }).click()
     await page.getByRole('button', { name: 'Your account and units' }).waitFor()
+    await page.waitForLoadState('networkidle')
+    // The line pages prefetch the other floor views once mounted (offline readiness): wait for
+    // that too, so the count does not depend on how fast the machine was.
+    await page.waitForTimeout(2000)
     await page.waitForLoadState('networkidle')
     const firstPage = new URL(page.url()).pathname
     // Bodies are read while the page is still open; a file that cannot be read fails the count.
