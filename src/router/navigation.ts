@@ -7,11 +7,11 @@
 import type { RouteLocationRaw, Router } from 'vue-router'
 import {
   mdiAccountGroupOutline,
+  mdiCertificateOutline,
   mdiAlertOctagonOutline,
   mdiClipboardCheckOutline,
   mdiHistory,
   mdiTagOutline,
-  mdiCertificateOutline,
   mdiChartTimelineVariant,
   mdiClipboardListOutline,
   mdiCloudUploadOutline,
@@ -42,8 +42,18 @@ export const NAV_GROUPS: NavGroup[] = [
   {
     heading: 'Coating line',
     entries: [
-      { title: 'Lots', icon: mdiClipboardListOutline, route: ROUTES.floorLots, hint: 'Open a lot, inspect its parts' },
-      { title: 'Waiting to send', icon: mdiCloudUploadOutline, route: ROUTES.floorQueue, hint: 'Records kept on this tablet' },
+      {
+        title: 'Lots',
+        icon: mdiClipboardListOutline,
+        route: ROUTES.floorLots,
+        hint: 'Open a lot, inspect its parts',
+      },
+      {
+        title: 'Waiting to send',
+        icon: mdiCloudUploadOutline,
+        route: ROUTES.floorQueue,
+        hint: 'Records kept on this tablet',
+      },
     ],
   },
   {
@@ -94,10 +104,30 @@ export const NAV_GROUPS: NavGroup[] = [
   {
     heading: 'Setup',
     entries: [
-      { title: 'Coating specs', icon: mdiTextBoxCheckOutline, route: ROUTES.setupSpecs, hint: 'Bands, prep, holiday, cure' },
-      { title: 'Instruments', icon: mdiGauge, route: ROUTES.setupInstruments, hint: 'Gauges and calibration' },
-      { title: 'Customers', icon: mdiDomain, route: ROUTES.setupCustomers, hint: 'Companies and contacts' },
-      { title: 'People', icon: mdiAccountGroupOutline, route: ROUTES.setupPeople, hint: 'Sign-ins and roles' },
+      {
+        title: 'Coating specs',
+        icon: mdiTextBoxCheckOutline,
+        route: ROUTES.setupSpecs,
+        hint: 'Bands, prep, holiday, cure',
+      },
+      {
+        title: 'Instruments',
+        icon: mdiGauge,
+        route: ROUTES.setupInstruments,
+        hint: 'Gauges and calibration',
+      },
+      {
+        title: 'Customers',
+        icon: mdiDomain,
+        route: ROUTES.setupCustomers,
+        hint: 'Companies and contacts',
+      },
+      {
+        title: 'People',
+        icon: mdiAccountGroupOutline,
+        route: ROUTES.setupPeople,
+        hint: 'Sign-ins and roles',
+      },
       {
         title: 'Defect types',
         icon: mdiTagOutline,
@@ -119,7 +149,9 @@ export const NAV_GROUPS: NavGroup[] = [
 export function navFor(role: Role, router: Router): NavGroup[] {
   return NAV_GROUPS.map((g) => ({
     heading: g.heading,
-    entries: g.entries.filter((e) => router.resolve({ name: e.route }).meta.roles?.includes(role) ?? false),
+    entries: g.entries.filter(
+      (e) => router.resolve({ name: e.route }).meta.roles?.includes(role) ?? false,
+    ),
   })).filter((g) => g.entries.length > 0)
 }
 

@@ -10,7 +10,10 @@ import { sequelize } from '../index'
 export type OutboxStatus = 'queued' | 'sending' | 'sent' | 'failed'
 
 /** One e-mail to one recipient, queued in the transaction that issued the certificate. */
-export class MailOutbox extends Model<InferAttributes<MailOutbox>, InferCreationAttributes<MailOutbox>> {
+export class MailOutbox extends Model<
+  InferAttributes<MailOutbox>,
+  InferCreationAttributes<MailOutbox>
+> {
   declare id: CreationOptional<string>
   declare certificateId: number
   declare contactId: number | null

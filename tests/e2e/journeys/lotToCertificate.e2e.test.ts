@@ -1,6 +1,6 @@
 import { readFile } from 'node:fs/promises'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { BASE_URL, VIEWPORTS, openBrowser, signIn, type BrowserSession } from '../support/browser'
+import { BASE_URL, VIEWPORTS, openBrowser, signIn } from '../support/browser'
 import type { LotDetail, PartDetail } from '../../../shared/api/lots'
 import { checkPage, pick, unexpected } from './journeySupport'
 import {
