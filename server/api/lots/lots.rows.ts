@@ -2,6 +2,7 @@ import { QueryTypes, type Transaction } from 'sequelize'
 import { sequelize } from '../../db'
 import type { Line, LotRow, LotStatus, PartRow, PhotoRow, Shift } from '../../../shared/api/lots'
 import type { Part } from '../../db/models'
+import { photoRowsBy } from '../photos/photos.rows'
 
 /** Columns of LotRow, with the part tallies from the stored verdicts. */
 export const LOT_ROW_SELECT = `
@@ -102,31 +103,5 @@ export function toPartRow(p: Part): PartRow {
   }
 }
 
-export async function photoRowsOfLot(lotId: number, t?: Transaction): Promise<PhotoRow[]> {
-  const rows = await sequelize.query<{
-    id: number
-    part_id: number | null
-    caption: string
-    width: number
-    height: number
-    uploaded_by: number
-    uploader_name: string
-    uploaded_at: Date
-  }>(
-    `SELECT p.id, p.part_id, p.caption, p.width, p.height, p.uploaded_by, u.name AS uploader_name, p.uploaded_at
-       FROM photos p JOIN users u ON u.id = p.uploaded_by WHERE p.lot_id = $1 ORDER BY p.id`,
-    { bind: [lotId], type: QueryTypes.SELECT, transaction: t },
-  )
-  return rows.map((r) => ({
-    id: r.id,
-    partId: r.part_id,
-    caption: r.caption,
-    width: r.width,
-    height: r.height,
-    uploaded: {
-      byId: r.uploaded_by,
-      byName: r.uploader_name,
-      at: new Date(r.uploaded_at).toISOString(),
-    },
-  }))
-}
+export const photoRowsOfLot = (lotId: number, t?: Transaction): Promise<PhotoRow[]> =>
+  photoRowsBy('lot', lotId, t)

@@ -3,6 +3,7 @@ import { sequelize } from '../../db'
 import { notFound } from '../../lib/httpError'
 import type { PhotoRow, Stamp } from '../../../shared/api/lots'
 import type { Disposition, NcStatus, NonconformanceRow } from '../../../shared/api/review'
+import { photoRowsBy } from '../photos/photos.rows'
 
 interface NcSqlRow {
   id: number
@@ -103,34 +104,8 @@ export async function ncRow(id: number, t?: Transaction): Promise<Nonconformance
 }
 
 /** Photos filed under a nonconformance, oldest first. */
-export async function ncPhotoRows(ncId: number, t?: Transaction): Promise<PhotoRow[]> {
-  const rows = await sequelize.query<{
-    id: number
-    part_id: number | null
-    caption: string
-    width: number
-    height: number
-    uploaded_by: number
-    uploader_name: string
-    uploaded_at: Date
-  }>(
-    `SELECT p.id, p.part_id, p.caption, p.width, p.height, p.uploaded_by, u.name AS uploader_name, p.uploaded_at
-       FROM photos p JOIN users u ON u.id = p.uploaded_by WHERE p.nonconformance_id = $1 ORDER BY p.id`,
-    { bind: [ncId], type: QueryTypes.SELECT, transaction: t },
-  )
-  return rows.map((r) => ({
-    id: r.id,
-    partId: r.part_id,
-    caption: r.caption,
-    width: r.width,
-    height: r.height,
-    uploaded: {
-      byId: r.uploaded_by,
-      byName: r.uploader_name,
-      at: new Date(r.uploaded_at).toISOString(),
-    },
-  }))
-}
+export const ncPhotoRows = (ncId: number, t?: Transaction): Promise<PhotoRow[]> =>
+  photoRowsBy('nonconformance', ncId, t)
 
 /** GET /api/nonconformances/:id: the record with its photos (the contract's row plus `photos`). */
 export async function ncDetail(id: number): Promise<NonconformanceRow & { photos: PhotoRow[] }> {
