@@ -29,7 +29,10 @@ else
   say 'No index.html yet: serving the API only.'
 fi
 
-bg 'the server' "$PORT" node --import tsx server/index.ts
+say 'Building the server (dist-server/index.js, when a source is newer)'
+tsnode scripts/serverBuild.ts
+# the same flags as serverNodeArgs() in scripts/serverBuild.ts: source-mapped stacks, heap budget
+bg 'the server' "$PORT" node --enable-source-maps --max-old-space-size="${HEAP_MB:-192}" dist-server/index.js
 collect_sign_ins
 bg_ready
 print_banner "http://127.0.0.1:$PORT"

@@ -5,6 +5,7 @@
  * and whether a change helped.
  */
 import { readFileSync, readdirSync } from 'node:fs'
+import pg from 'pg'
 
 const TICK_MS = 10 // USER_HZ is 100 on Linux
 
@@ -54,5 +55,19 @@ export function cpuSpan(serverPid: number, postmasterPid: number): CpuSpan {
         postgresMsPerReq: (postgresCpuMs(postmasterPid) - p0) / requests,
       }
     },
+  }
+}
+
+/** The data folder of the cluster behind a database URL (to find its postmaster). */
+export async function dataDirectory(url: string) {
+  const db = new pg.Client({ connectionString: url })
+  await db.connect()
+  try {
+    const { rows } = await db.query<{ d: string }>('SELECT current_setting($1) AS d', [
+      'data_directory',
+    ])
+    return rows[0]!.d
+  } finally {
+    await db.end()
   }
 }

@@ -25,7 +25,7 @@ import { measureTrends } from './trends'
 import { measureCertificatePdf } from './pdf'
 import { measureClientSize } from './clientSize'
 import { printTable, summarise, writeJson, type MetricDef } from './report'
-import { cpuSpan, postmasterPidOf } from './cpu'
+import { cpuSpan, dataDirectory, postmasterPidOf } from './cpu'
 import { startSmtpSink } from './smtpSink'
 
 const { values: args } = parseArgs({
@@ -264,19 +264,6 @@ async function countHistory(url: string) {
       'SELECT (SELECT count(*) FROM parts) AS parts, (SELECT count(*) FROM gauge_readings) AS readings',
     )
     return { parts: Number(rows[0]!.parts), readings: Number(rows[0]!.readings) }
-  } finally {
-    await db.end()
-  }
-}
-
-async function dataDirectory(url: string) {
-  const db = new pg.Client({ connectionString: url })
-  await db.connect()
-  try {
-    const { rows } = await db.query<{ d: string }>('SELECT current_setting($1) AS d', [
-      'data_directory',
-    ])
-    return rows[0]!.d
   } finally {
     await db.end()
   }

@@ -1,10 +1,12 @@
 /**
- * The real server (server/index.ts) as a child process on its own port and database, the way the
- * start command runs it, for the benchmark and the fault tests. Output goes to a log file so a
+ * The real server (the bundle of server/index.ts, scripts/serverBuild.ts) as a child process on
+ * its own port and database, the way the start command runs it, for the benchmark and the fault
+ * tests. Output goes to a log file so a
  * crash can be read afterwards.
  */
 import { spawn, type ChildProcess } from 'node:child_process'
 import { createWriteStream, readFileSync } from 'node:fs'
+import { ensureServerBuild, serverNodeArgs } from '../serverBuild'
 
 export interface ServerOptions {
   port: number
@@ -44,23 +46,20 @@ export async function waitForHealth(base: string, timeoutMs = 60_000, exited?: P
 }
 
 export async function startServer(opts: ServerOptions): Promise<RunningServer> {
+  await ensureServerBuild()
   const log = createWriteStream(opts.logFile, { flags: 'a' })
-  const child = spawn(
-    process.execPath,
-    [...(opts.nodeFlags ?? []), '--import', 'tsx', 'server/index.ts'],
-    {
-      env: {
-        PATH: process.env.PATH ?? '/usr/bin:/bin',
-        HOME: process.env.HOME ?? '/root',
-        HOST: '127.0.0.1',
-        PORT: String(opts.port),
-        DATABASE_URL: opts.databaseUrl,
-        PUBLIC_URL: `http://127.0.0.1:${opts.port}`,
-        ...opts.env,
-      },
-      stdio: ['ignore', 'pipe', 'pipe'],
+  const child = spawn(process.execPath, [...(opts.nodeFlags ?? []), ...serverNodeArgs()], {
+    env: {
+      PATH: process.env.PATH ?? '/usr/bin:/bin',
+      HOME: process.env.HOME ?? '/root',
+      HOST: '127.0.0.1',
+      PORT: String(opts.port),
+      DATABASE_URL: opts.databaseUrl,
+      PUBLIC_URL: `http://127.0.0.1:${opts.port}`,
+      ...opts.env,
     },
-  )
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
   child.stdout!.pipe(log, { end: false })
   child.stderr!.pipe(log, { end: false })
   const exited = new Promise<number | null>((resolve) =>

@@ -19,8 +19,12 @@ export interface PartForVerdict {
   coatedAreaM2: number | null
 }
 
-/** The part's current sections and live readings, in one round trip. */
-async function loadRows(partId: number, round: number, t: Transaction) {
+/**
+ * The part's current sections and live readings, in one round trip. The query is sent at once
+ * (the connection pipelines): a caller may start it right behind the write whose rows it must
+ * see, in the same transaction, and await both together.
+ */
+export async function loadVerdictRows(partId: number, round: number, t: Transaction) {
   const [row] = await preparedQuery<{
     sections: SectionRowInput[] | null
     carried: SectionName[] | null
@@ -80,21 +84,32 @@ export async function recomputePartVerdict(
   part: PartForVerdict,
   t: Transaction,
 ): Promise<PartVerdict> {
-  const { sections, carried, readings } = await loadRows(part.id, part.round, t)
-  const { verdict, thicknessMeanUm: meanUm } = verdictFromRows(
-    spec,
-    part,
-    sections,
-    readings,
-    carried,
-  )
+  const rows = await loadVerdictRows(part.id, part.round, t)
+  const judged = verdictFromStoredRows(spec, part, rows)
+  await storeVerdict(part.id, judged, t)
+  return judged.verdict
+}
+
+export function verdictFromStoredRows(
+  spec: SpecContent,
+  part: PartForVerdict,
+  rows: Awaited<ReturnType<typeof loadVerdictRows>>,
+) {
+  return verdictFromRows(spec, part, rows.sections, rows.readings, rows.carried)
+}
+
+/** Stores a recomputed verdict (sent at once: it may be awaited together with the audit event). */
+export async function storeVerdict(
+  partId: number,
+  judged: ReturnType<typeof verdictFromRows>,
+  t: Transaction,
+): Promise<void> {
   await preparedQuery(
     t,
     'part_verdict_store',
     `UPDATE parts SET verdict = $2, verdict_status = $3, thickness_mean_um = $4,
        first_pass_status = CASE WHEN round = 1 THEN $3 ELSE first_pass_status END, updated_at = now()
      WHERE id = $1`,
-    [part.id, JSON.stringify(verdict), verdict.status, meanUm],
+    [partId, JSON.stringify(judged.verdict), judged.verdict.status, judged.thicknessMeanUm],
   )
-  return verdict
 }

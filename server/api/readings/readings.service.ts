@@ -10,7 +10,7 @@ import { localIsoDate } from '../../../shared/api/calibration'
 import { assertInstrumentUsable } from '../instruments/instruments.service'
 import { assertLotOpen } from '../lots/lotGuards'
 import { lockPartForWrite, type LockedPart } from '../parts/partLock'
-import { recomputePartVerdict } from '../parts/partVerdict'
+import { loadVerdictRows, storeVerdict, verdictFromStoredRows } from '../parts/partVerdict'
 import { readingRows } from '../parts/partDetail'
 import { FOREIGN_CLIENT_IDS, INSERT_READINGS } from './readings.sql'
 
@@ -87,6 +87,7 @@ async function replayOf(part: LockedPart, readings: ReadingBody[], t: Transactio
 /**
  * POST /api/parts/:id/readings. One INSERT for the batch, one query for the part's rows, one
  * UPDATE for its verdict, one audit event: all in one transaction. Idempotent by clientId.
+ * Round trips: BEGIN, the lock, INSERT + rows, UPDATE + audit, COMMIT.
  */
 export async function postReadings(
   actor: Recorder,
@@ -120,23 +121,29 @@ export async function postReadings(
       if (rows) return replayAnswer(rows)
       throw err
     }
-    const inserted = await preparedQuery<{
-      id: string
-      client_id: string
-      suspect: boolean
-      taken_at: Date
-      recorded_at: Date
-    }>(t, 'readings_insert', INSERT_READINGS, [
-      part.id,
-      part.lotId,
-      part.round,
-      actor.id,
-      readings.map((r) => r.areaNo),
-      readings.map((r) => r.spotNo),
-      readings.map((r) => r.thicknessUm),
-      readings.map((r) => r.instrumentId),
-      readings.map((r) => r.takenAt ?? null),
-      readings.map((r) => r.clientId),
+    // The INSERT and the read of the part's rows for its verdict leave together (the connection
+    // pipelines; the read, later in the same transaction, sees the new rows); so do the verdict's
+    // UPDATE and the audit event. One network round trip each instead of two.
+    const [inserted, verdictRows] = await Promise.all([
+      preparedQuery<{
+        id: string
+        client_id: string
+        suspect: boolean
+        taken_at: Date
+        recorded_at: Date
+      }>(t, 'readings_insert', INSERT_READINGS, [
+        part.id,
+        part.lotId,
+        part.round,
+        actor.id,
+        readings.map((r) => r.areaNo),
+        readings.map((r) => r.spotNo),
+        readings.map((r) => r.thicknessUm),
+        readings.map((r) => r.instrumentId),
+        readings.map((r) => r.takenAt ?? null),
+        readings.map((r) => r.clientId),
+      ]),
+      loadVerdictRows(part.id, part.round, t),
     ])
     if (inserted.length < readings.length) {
       const foreign = await sequelize.query(FOREIGN_CLIENT_IDS, {
@@ -158,20 +165,24 @@ export async function postReadings(
         ),
       )
 
-    const verdict = await recomputePartVerdict(part.spec, part, t)
-    await recordAudit(t, actor, {
-      action: 'readings.record',
-      entityType: 'part',
-      entityId: part.id,
-      lotId: part.lotId,
-      after: {
-        readingIds: inserted.map((r) => String(r.id)),
-        round: part.round,
-        suspectCount: inserted.filter((r) => r.suspect).length,
-        verdictStatus: verdict.status,
-        progress: verdict.samplingPlan.progress,
-      },
-    })
+    const judged = verdictFromStoredRows(part.spec, part, verdictRows)
+    const verdict = judged.verdict
+    await Promise.all([
+      storeVerdict(part.id, judged, t),
+      recordAudit(t, actor, {
+        action: 'readings.record',
+        entityType: 'part',
+        entityId: part.id,
+        lotId: part.lotId,
+        after: {
+          readingIds: inserted.map((r) => String(r.id)),
+          round: part.round,
+          suspectCount: inserted.filter((r) => r.suspect).length,
+          verdictStatus: verdict.status,
+          progress: verdict.samplingPlan.progress,
+        },
+      }),
+    ])
     let rows: ReadingRow[]
     if (inserted.length === readings.length) {
       const byClient = new Map(inserted.map((r) => [r.client_id, r]))

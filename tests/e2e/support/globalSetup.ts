@@ -1,4 +1,5 @@
 import { spawn, execFileSync, type ChildProcess } from 'node:child_process'
+import { ensureServerBuild, serverNodeArgs } from '../../../scripts/serverBuild'
 import { existsSync, mkdirSync, openSync } from 'node:fs'
 import pg from 'pg'
 import { BASE_URL, E2E_DB, E2E_PORT, SCREENSHOT_DIR, adminUrl, e2eDatabaseUrl } from './serverInfo'
@@ -68,7 +69,7 @@ async function waitForHealth(child: ChildProcess, timeoutMs = 30_000) {
 function stop(child: ChildProcess) {
   if (child.pid === undefined || child.exitCode !== null) return
   try {
-    // Negative pid: the whole group (npx → tsx → node), not just the npx wrapper.
+    // Negative pid: the whole group (the server and anything it started).
     process.kill(-child.pid, 'SIGTERM')
   } catch {
     return
@@ -101,8 +102,10 @@ export default async function setup() {
   // `npm test` builds the client first; a lone `vitest --project e2e` builds it here.
   if (!existsSync('dist/index.html')) execFileSync('npx', ['vite', 'build'], { stdio: 'inherit' })
 
+  // The server as npm start runs it: the bundle (rebuilt here when a source is newer).
+  await ensureServerBuild()
   const log = openSync(SERVER_LOG, 'w')
-  const child = spawn('npx', ['tsx', 'server/index.ts'], {
+  const child = spawn(process.execPath, serverNodeArgs(), {
     env,
     detached: true,
     stdio: ['ignore', log, log],
