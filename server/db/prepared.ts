@@ -1,5 +1,6 @@
 import { QueryTypes, type Transaction } from 'sequelize'
 import { sequelize } from './index'
+import { takePendingBegin } from './pipelinedTransaction'
 
 /** Sequelize's own Query class of the postgres dialect: only its error mapping is used. */
 const SequelizeQuery = (
@@ -44,7 +45,11 @@ export async function preparedQuery<T>(
   // than the query's own JavaScript).
   const origin = new Error()
   try {
-    return (await client.query({ name, text, values })).rows as T[]
+    const query = client.query({ name, text, values })
+    // The first statement of a pipelined transaction also answers for its BEGIN.
+    const begin = takePendingBegin(t)
+    const result = begin ? (await Promise.all([begin, query]))[1] : await query
+    return result.rows as T[]
   } catch (err) {
     if ((err as { code?: string }).code === 'ECONNRESET') client._invalid = true
     throw new SequelizeQuery(client, sequelize, {}).formatError(err, origin.stack)

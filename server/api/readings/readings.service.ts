@@ -1,6 +1,7 @@
 import { QueryTypes, type Transaction } from 'sequelize'
 import type { z } from 'zod'
-import { inTransaction, sequelize } from '../../db'
+import { sequelize } from '../../db'
+import { commitWith, inPipelinedTransaction } from '../../db/pipelinedTransaction'
 import { preparedQuery } from '../../db/prepared'
 import { recordAudit, type AuditActor } from '../../audit/audit.service'
 import { HttpError, conflict } from '../../lib/httpError'
@@ -73,6 +74,43 @@ function inSentOrder(rows: ReadingRow[], readings: ReadingBody[]): ReadingRow[] 
   return readings.flatMap((r) => byClient.get(r.clientId) ?? [])
 }
 
+interface InsertedRow {
+  id: string
+  client_id: string
+  suspect: boolean
+  taken_at: Date
+  recorded_at: Date
+}
+
+/** The answer's rows for a batch stored whole, from the INSERT's RETURNING (no query). */
+function rowsAsInserted(
+  inserted: InsertedRow[],
+  readings: ReadingBody[],
+  round: number,
+  actor: Recorder,
+  serials: Map<number, string>,
+): ReadingRow[] {
+  const byClient = new Map(inserted.map((r) => [r.client_id, r]))
+  return readings.map((r) => {
+    const s = byClient.get(r.clientId)!
+    return {
+      id: String(s.id),
+      clientId: r.clientId,
+      round,
+      areaNo: r.areaNo,
+      spotNo: r.spotNo,
+      thicknessUm: r.thicknessUm,
+      instrumentId: r.instrumentId,
+      instrumentSerial: serials.get(r.instrumentId)!,
+      suspect: s.suspect,
+      discarded: false,
+      discardReason: null,
+      takenAt: new Date(s.taken_at).toISOString(),
+      recorded: { byId: actor.id, byName: actor.name, at: new Date(s.recorded_at).toISOString() },
+    }
+  })
+}
+
 /** A batch whose every reading is already stored for this part: answer it as stored. */
 async function replayOf(part: LockedPart, readings: ReadingBody[], t: Transaction) {
   const ids = readings.map((r) => r.clientId)
@@ -87,7 +125,8 @@ async function replayOf(part: LockedPart, readings: ReadingBody[], t: Transactio
 /**
  * POST /api/parts/:id/readings. One INSERT for the batch, one query for the part's rows, one
  * UPDATE for its verdict, one audit event: all in one transaction. Idempotent by clientId.
- * Round trips: BEGIN, the lock, INSERT + rows, UPDATE + audit, COMMIT.
+ * Three round trips (server/db/pipelinedTransaction.ts): BEGIN + the lock; INSERT + the part's
+ * rows; verdict UPDATE + audit event + COMMIT.
  */
 export async function postReadings(
   actor: Recorder,
@@ -95,7 +134,7 @@ export async function postReadings(
   readings: ReadingBody[],
 ): Promise<{ result: ReadingsBatchResult; created: boolean }> {
   checkBatchShape(readings)
-  return inTransaction(async (t) => {
+  return inPipelinedTransaction(async (t) => {
     const part = await lockPartForWrite(partId, t)
     const replayAnswer = async (rows: ReadingRow[]) => ({
       result: {
@@ -125,13 +164,7 @@ export async function postReadings(
     // pipelines; the read, later in the same transaction, sees the new rows); so do the verdict's
     // UPDATE and the audit event. One network round trip each instead of two.
     const [inserted, verdictRows] = await Promise.all([
-      preparedQuery<{
-        id: string
-        client_id: string
-        suspect: boolean
-        taken_at: Date
-        recorded_at: Date
-      }>(t, 'readings_insert', INSERT_READINGS, [
+      preparedQuery<InsertedRow>(t, 'readings_insert', INSERT_READINGS, [
         part.id,
         part.lotId,
         part.round,
@@ -167,7 +200,7 @@ export async function postReadings(
 
     const judged = verdictFromStoredRows(part.spec, part, verdictRows)
     const verdict = judged.verdict
-    await Promise.all([
+    const last = [
       storeVerdict(part.id, judged, t),
       recordAudit(t, actor, {
         action: 'readings.record',
@@ -182,37 +215,19 @@ export async function postReadings(
           progress: verdict.samplingPlan.progress,
         },
       }),
-    ])
+    ] as const
     let rows: ReadingRow[]
     if (inserted.length === readings.length) {
-      const byClient = new Map(inserted.map((r) => [r.client_id, r]))
-      rows = readings.map((r) => {
-        const s = byClient.get(r.clientId)!
-        return {
-          id: String(s.id),
-          clientId: r.clientId,
-          round: part.round,
-          areaNo: r.areaNo,
-          spotNo: r.spotNo,
-          thicknessUm: r.thicknessUm,
-          instrumentId: r.instrumentId,
-          instrumentSerial: serials.get(r.instrumentId)!,
-          suspect: s.suspect,
-          discarded: false,
-          discardReason: null,
-          takenAt: new Date(s.taken_at).toISOString(),
-          recorded: {
-            byId: actor.id,
-            byName: actor.name,
-            at: new Date(s.recorded_at).toISOString(),
-          },
-        }
-      })
+      await commitWith(t, [...last])
+      rows = rowsAsInserted(inserted, readings, part.round, actor, serials)
     } else {
-      rows = inSentOrder(
-        await readingRows('r.client_id = ANY($1::uuid[])', [readings.map((r) => r.clientId)], t),
-        readings,
-      )
+      // Part of the batch was stored by an earlier send whose answer was lost: read it all back.
+      const ids = readings.map((r) => r.clientId)
+      const [, , stored] = await Promise.all([
+        ...last,
+        readingRows('r.client_id = ANY($1::uuid[])', [ids], t),
+      ])
+      rows = inSentOrder(stored, readings)
     }
     return {
       result: {
