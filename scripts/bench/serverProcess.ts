@@ -1,8 +1,7 @@
 /**
  * The real server (the bundle of server/index.ts, scripts/serverBuild.ts) as a child process on
  * its own port and database, the way the start command runs it, for the benchmark and the fault
- * tests. Output goes to a log file so a
- * crash can be read afterwards.
+ * tests. Output goes to a log file so a crash can be read afterwards.
  */
 import { spawn, type ChildProcess } from 'node:child_process'
 import { createWriteStream, readFileSync } from 'node:fs'

@@ -5,7 +5,7 @@ import { sequelize } from './index'
  * A transaction for the write hot path whose BEGIN leaves with its first statement and whose
  * COMMIT leaves with its last ones (pg pipeline mode, server/db/index.ts): a readings POST is then
  * three network round trips (BEGIN + the lock; INSERT + the verdict's rows; verdict UPDATE +
- * audit event + COMMIT) instead of five. It is a real Sequelize Transaction (same connection
+ * audit event + COMMIT) instead of seven, one per statement. It is a real Sequelize Transaction (same connection
  * pool, `transaction: t` works in every query, afterCommit hooks run); only BEGIN and COMMIT are
  * sent differently.
  *
@@ -74,7 +74,10 @@ export async function inPipelinedTransaction<T>(fn: (t: Transaction) => Promise<
   try {
     const result = await fn(t)
     await takePendingBegin(t) // a transaction that sent no statement through preparedQuery
-    if (!committing.has(t)) await connection.query('COMMIT')
+    if (!committing.has(t)) {
+      committing.add(t) // from here on, a failure (of an afterCommit hook) is not rolled back
+      await connection.query('COMMIT')
+    }
     t.finished = 'commit'
     for (const hook of t._afterCommitHooks) await hook(t)
     return result
