@@ -7,7 +7,8 @@
  * thread, no transformed sources) and formats no source-mapped stack unless an error is logged.
  *
  * `node --import tsx scripts/serverBuild.ts` (npm run build:server) builds when a source is newer
- * than the bundle; `--force` always.
+ * than the bundle; `--force` always; `--print-args` then prints serverNodeArgs(), one per line
+ * (how scripts/start.sh runs the server with the same flags).
  */
 import { build } from 'esbuild'
 import { existsSync, mkdirSync, readdirSync, renameSync, statSync, writeFileSync } from 'node:fs'
@@ -27,8 +28,7 @@ function newestChange(path: string): number {
 }
 
 /**
- * How the bundle is run, by every caller of this module (npm start has the same line in
- * scripts/start.sh): stacks in the log point into the TypeScript sources, and the old generation
+ * How the bundle is run, by every caller of this module and by npm start (--print-args): stacks in the log point into the TypeScript sources, and the old generation
  * has a budget, HEAP_MB (default 192 MB). Without one, V8 lets it grow to about four times the
  * live heap before compacting: under the readings load the live heap stays near 46 MB, yet the
  * old generation reached 186 MB and the process 280 MB of memory. With the budget the same load
@@ -76,7 +76,11 @@ if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.ur
   const t0 = Date.now()
   const stale = process.argv.includes('--force') || serverBuildIsStale()
   await ensureServerBuild(stale)
-  console.log(
-    stale ? `built ${SERVER_BUNDLE} in ${Date.now() - t0} ms` : `${SERVER_BUNDLE} is up to date`,
-  )
+  const said = stale
+    ? `built ${SERVER_BUNDLE} in ${Date.now() - t0} ms`
+    : `${SERVER_BUNDLE} is up to date`
+  if (process.argv.includes('--print-args')) {
+    console.error(said)
+    console.log(serverNodeArgs().join('\n'))
+  } else console.log(said)
 }

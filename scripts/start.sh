@@ -30,9 +30,10 @@ else
 fi
 
 say 'Building the server (dist-server/index.js, when a source is newer)'
-tsnode scripts/serverBuild.ts
-# the same flags as serverNodeArgs() in scripts/serverBuild.ts: source-mapped stacks, heap budget
-bg 'the server' "$PORT" node --enable-source-maps --max-old-space-size="${HEAP_MB:-192}" dist-server/index.js
+# serverNodeArgs() of scripts/serverBuild.ts: the bundle with source-mapped stacks and its heap budget
+mapfile -t SERVER_ARGS < <(tsnode scripts/serverBuild.ts --print-args)
+[ "${#SERVER_ARGS[@]}" -gt 0 ] || { say 'The server bundle could not be built'; exit 1; }
+bg 'the server' "$PORT" node "${SERVER_ARGS[@]}"
 collect_sign_ins
 bg_ready
 print_banner "http://127.0.0.1:$PORT"

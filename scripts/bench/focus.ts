@@ -8,7 +8,13 @@
  */
 import { randomBytes } from 'node:crypto'
 import { parseArgs } from 'node:util'
-import { BENCH_PASSWORD, prepareDatabase, signIn, openLotsForReadings } from './prepare'
+import {
+  BENCH_PASSWORD,
+  benchServerEnv,
+  prepareDatabase,
+  signIn,
+  openLotsForReadings,
+} from './prepare'
 import { loadReadings, loadBare } from './readings'
 import { startServer } from './serverProcess'
 import { cpuSpan, dataDirectory, postmasterPidOf } from './cpu'
@@ -30,15 +36,10 @@ const server = await startServer({
   port: 5191,
   databaseUrl: dbUrl,
   logFile: 'bench-out/server-focus.log',
-  env: {
-    NODE_ENV: 'production',
-    LOG_LEVEL: 'warn',
-    JWT_SECRET: randomBytes(32).toString('hex'),
-    DB_POOL_MAX: '10',
-    LOGIN_RATE_LIMIT: '1000',
-    BENCH_BARE_ROUTE: '1',
-    ...(values.client ? { CLIENT_DIST: values.client } : {}),
-  },
+  env: benchServerEnv(
+    randomBytes(32).toString('hex'),
+    values.client ? { CLIENT_DIST: values.client } : {},
+  ),
   nodeFlags: values['cpu-prof'] ? ['--cpu-prof', '--cpu-prof-dir=bench-out/prof-focus'] : [],
 })
 try {

@@ -19,7 +19,14 @@ import { parseArgs } from 'node:util'
 import pg from 'pg'
 import { startCluster, type Cluster } from './cluster'
 import { startServer, type RunningServer } from './serverProcess'
-import { BENCH_PASSWORD, openLotsForReadings, prepareDatabase, signIn } from './prepare'
+import {
+  BENCH_PASSWORD,
+  BENCH_POOL_MAX,
+  benchServerEnv,
+  openLotsForReadings,
+  prepareDatabase,
+  signIn,
+} from './prepare'
 import { loadBare, loadReadings } from './readings'
 import { measureTrends } from './trends'
 import { measureCertificatePdf } from './pdf'
@@ -45,7 +52,7 @@ const RUNS = Number(args.runs)
 const DURATION_S = Number(args.duration)
 const PG_PORT = 54359
 const APP_PORT = 5190
-const POOL_MAX = 10
+const POOL_MAX = BENCH_POOL_MAX
 const CLIENT_OUT = 'bench-out/client'
 
 const METRICS: MetricDef[] = [
@@ -145,16 +152,7 @@ try {
     port: APP_PORT,
     databaseUrl: dbUrl,
     logFile: 'bench-out/server.log',
-    env: {
-      NODE_ENV: 'production',
-      LOG_LEVEL: 'warn',
-      JWT_SECRET: jwtSecret,
-      DB_POOL_MAX: String(POOL_MAX),
-      CLIENT_DIST: CLIENT_OUT,
-      LOGIN_RATE_LIMIT: '1000',
-      BENCH_BARE_ROUTE: '1',
-      SMTP_PORT: String(smtp.port),
-    },
+    env: benchServerEnv(jwtSecret, { CLIENT_DIST: CLIENT_OUT, SMTP_PORT: String(smtp.port) }),
     nodeFlags: args['cpu-prof'] ? ['--cpu-prof', '--cpu-prof-dir=bench-out/prof'] : [],
   })
   say(`server pid ${server.pid} on ${server.base}; RSS after start ${server.rssMb().toFixed(0)} MB`)

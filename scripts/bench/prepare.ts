@@ -9,6 +9,25 @@ import bcrypt from 'bcryptjs'
 import pg from 'pg'
 import { addDays, localIsoDate } from '../../shared/api/calibration'
 
+/** The server's database pool in every bench measurement (the trends replay uses as many). */
+export const BENCH_POOL_MAX = 10
+
+/**
+ * The bench server's settings, the same for npm run bench and scripts/bench/focus.ts:
+ * production mode, quiet log, the bare yardstick route mounted, sign-in not rate-limited.
+ */
+export function benchServerEnv(jwtSecret: string, extra: Record<string, string> = {}) {
+  return {
+    NODE_ENV: 'production',
+    LOG_LEVEL: 'warn',
+    JWT_SECRET: jwtSecret,
+    DB_POOL_MAX: String(BENCH_POOL_MAX),
+    LOGIN_RATE_LIMIT: '1000',
+    BENCH_BARE_ROUTE: '1',
+    ...extra,
+  }
+}
+
 export const BENCH_PASSWORD = `bench-${randomBytes(12).toString('hex')}`
 
 export async function prepareDatabase(url: string) {

@@ -64,7 +64,9 @@ try {
   console.log(
     `${n} sequential readings POSTs: median ${ms[n >> 1]!.toFixed(2)} ms, p95 ${ms[Math.ceil(n * 0.95) - 1]!.toFixed(2)} ms`,
   )
-  console.log(`SQL statements in the last request (pipelined pairs share one round trip): ${perRequest.length}`)
+  console.log(
+    `SQL statements in the last request (pipelined pairs share one round trip): ${perRequest.length}`,
+  )
   for (const s of perRequest) console.log(`  ${s}`)
 } finally {
   server.close()

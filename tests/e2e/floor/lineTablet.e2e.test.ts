@@ -237,4 +237,37 @@ describe('line tablet at 800×1280 (portrait)', () => {
     await checkLayout(t, 'floor-part-thickness-800x1280')
     expect(t.problems).toEqual([])
   })
+
+  it('imports a gauge file: offline before it was first opened it says why; online it previews, continues after the recorded spots and saves', async () => {
+    const { page, context } = t
+    const partId = lot.parts[0]!.id
+    await context.setOffline(true)
+    await page.locator('[data-test="import-open"]').tap()
+    await page.locator('[data-test="import-unavailable"]').waitFor()
+    expect(await page.locator('[data-test="gauge-import"]').count()).toBe(0)
+
+    await context.setOffline(false)
+    await page.locator('[data-test="import-open"]').tap()
+    await page.locator('[data-test="gauge-import"]').waitFor()
+    expect(await page.locator('[data-test="import-unavailable"]').count()).toBe(0)
+    // A one-column export (the shared parser: spots of 3 readings, SSPC-PA 2 [R]) of one spot.
+    await page.locator('[data-test="gauge-file"]').setInputFiles({
+      name: 'gauge-export.csv',
+      mimeType: 'text/csv',
+      buffer: Buffer.from('Reading\n400\n405\n410\n'),
+    })
+    await expect
+      .poll(() => page.locator('[data-test="import-summary"]').textContent())
+      .toContain('3 readings read')
+    await screenshot(page, 'floor-gauge-import-800x1280', false)
+    await page.locator('[data-test="import-confirm"]').tap()
+    await page.locator('[data-test="import-outcome"]').waitFor()
+    await expect.poll(async () => (await badge(page)).text, { timeout: 15_000 }).toBe('All sent')
+    const stored = await getPart(token, partId)
+    // Spots 1 and 2 were recorded by hand above: the file's spot continues as spot 3.
+    expect(stored.readings.filter((r) => r.spotNo === 3).map((r) => r.thicknessUm)).toEqual([
+      400, 405, 410,
+    ])
+    expect(t.problems).toEqual([])
+  })
 })
