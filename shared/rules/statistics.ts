@@ -46,8 +46,15 @@ export interface Indices {
   cpu?: number
 }
 
+/**
+ * A spread below a billionth of the mean is floating-point noise (for example readings typed in
+ * mils and stored in µm), not a measured spread: indices from it would be absurd (Cp ≈ 10¹⁴).
+ */
+export const SPREAD_NOISE_FRACTION = 1e-9
+
 function indices(mu: number, sigma: number, lsl?: number, usl?: number): Indices {
-  if (!(sigma > 0) || !Number.isFinite(sigma)) return {}
+  if (!Number.isFinite(sigma) || !(sigma > SPREAD_NOISE_FRACTION * Math.max(1, Math.abs(mu))))
+    return {}
   const out: Indices = {}
   if (lsl !== undefined) out.cpl = (mu - lsl) / (3 * sigma)
   if (usl !== undefined) out.cpu = (usl - mu) / (3 * sigma)

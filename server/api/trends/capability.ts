@@ -4,6 +4,7 @@
  * the two agree on the same values.
  */
 import type { CapabilityIndices } from '../../../shared/api/trends'
+import { SPREAD_NOISE_FRACTION } from '../../../shared/rules/statistics'
 import { formatNumber } from './format'
 
 export function indicesFrom(
@@ -13,7 +14,8 @@ export function indicesFrom(
   uslUm: number | null,
 ): CapabilityIndices {
   const out: CapabilityIndices = { cp: null, cpk: null, cpl: null, cpu: null }
-  if (sigmaUm === null || !(sigmaUm > 0) || !Number.isFinite(sigmaUm)) return out
+  const noiseUm = SPREAD_NOISE_FRACTION * Math.max(1, Math.abs(meanUm))
+  if (sigmaUm === null || !Number.isFinite(sigmaUm) || !(sigmaUm > noiseUm)) return out
   out.cpl = (meanUm - lslUm) / (3 * sigmaUm)
   if (uslUm !== null) {
     out.cpu = (uslUm - meanUm) / (3 * sigmaUm)

@@ -7,6 +7,7 @@ import {
   RuleInputError,
   subgroupCapability,
 } from '../../../shared/rules/index'
+import { indicesFrom } from '../../../server/api/trends/capability'
 
 const close = (a: number, b: number) => Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(b))
 
@@ -19,8 +20,11 @@ describe('capability — overall sample sd (n − 1) [R formulas; cross-checked 
           const c = capability(values, 300, 500)
           const sd = ss.sampleStandardDeviation(values)
           const mu = ss.mean(values)
-          if (!close(c.mean, mu) || !close(c.sd, sd) || c.n !== values.length) return false
-          if (sd === 0) return c.cp === undefined
+          // Two sd algorithms agree to rounding of the values themselves, not of the tiny sd
+          const sdClose = Math.abs(c.sd - sd) <= 1e-9 * Math.max(1, Math.abs(mu))
+          if (!close(c.mean, mu) || !sdClose || c.n !== values.length) return false
+          if (sd <= 1e-10 * mu) return c.cp === undefined
+          if (sd <= 1e-8 * mu) return true // near the noise floor either answer is fair
           return (
             close(c.cp!, 200 / (6 * sd)) &&
             close(c.cpl!, (mu - 300) / (3 * sd)) &&
@@ -49,6 +53,18 @@ describe('capability — overall sample sd (n − 1) [R formulas; cross-checked 
 
   it('zero spread or a single value leaves the indices undefined', () => {
     expect(capability([300, 300, 300], 250, 350).cp).toBeUndefined()
+    // float noise is no spread: CI once found Cp ≈ 10¹⁴ for these
+    expect(capability([100.00000000000004, 100, 100.00000000000014], 50, 150).cp).toBeUndefined()
+    expect(
+      capability(
+        [4, 4, 4].map((mil) => mil * 25.4),
+        50,
+        150,
+      ).cpk,
+    ).toBeUndefined()
+    // the trends page (σ from the database) draws the same line
+    expect(indicesFrom(100, 7e-14, 50, 150).cpk).toBeNull()
+    expect(indicesFrom(100, 0.5, 50, 150).cp).toBeCloseTo(100 / 3, 12)
     expect(capability([300], 250, 350).cpk).toBeUndefined()
   })
 
