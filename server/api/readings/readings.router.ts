@@ -2,7 +2,7 @@ import { z } from 'zod'
 import { idParams, secureRouter } from '../secureRouter'
 import { FLOOR } from '../../../shared/api/roles'
 import { discardReadingSchema, readingsBodySchema } from '../../../shared/api/lots'
-import { postReadings } from './readings.service'
+import { submitReadings } from './readingsCommitGroup'
 import { discardReading } from './discard.service'
 
 /** POST /api/parts/:id/readings lives here (it is the readings feature); the parts router has the rest. */
@@ -12,7 +12,7 @@ partReadingsRouter.post(
   '/:id/readings',
   { roles: FLOOR, params: idParams, body: readingsBodySchema },
   async ({ res, params, body, user }) => {
-    const { result, created } = await postReadings(user, params.id, body.readings)
+    const { result, created } = await submitReadings(user, params.id, body.readings)
     res.status(created ? 201 : 200)
     return result
   },

@@ -22,7 +22,7 @@ export const DFT_GAUGE_KINDS = ['dft-gauge-type1', 'dft-gauge-type2'] as const
 /** Tablet clocks drift; a reading "taken" further ahead than this is a wrong clock, not a reading. */
 const FUTURE_SLACK_MS = 10 * 60_000
 
-function checkBatchShape(readings: ReadingBody[]) {
+export function checkBatchShape(readings: ReadingBody[]) {
   const seen = new Set<string>()
   const now = Date.now()
   readings.forEach((r, i) => {
@@ -43,7 +43,10 @@ function checkBatchShape(readings: ReadingBody[]) {
 }
 
 /** Each distinct gauge, on each day it was used, must be a DFT gauge in calibration. */
-async function checkGauges(readings: ReadingBody[], t: Transaction): Promise<Map<number, string>> {
+export async function checkGauges(
+  readings: ReadingBody[],
+  t: Transaction,
+): Promise<Map<number, string>> {
   const serials = new Map<number, string>()
   const checked = new Set<string>()
   for (const r of readings) {
@@ -74,7 +77,7 @@ function inSentOrder(rows: ReadingRow[], readings: ReadingBody[]): ReadingRow[] 
   return readings.flatMap((r) => byClient.get(r.clientId) ?? [])
 }
 
-interface InsertedRow {
+export interface InsertedRow {
   id: string
   client_id: string
   suspect: boolean
@@ -83,7 +86,7 @@ interface InsertedRow {
 }
 
 /** The answer's rows for a batch stored whole, from the INSERT's RETURNING (no query). */
-function rowsAsInserted(
+export function rowsAsInserted(
   inserted: InsertedRow[],
   readings: ReadingBody[],
   round: number,
@@ -108,6 +111,50 @@ function rowsAsInserted(
       takenAt: new Date(s.taken_at).toISOString(),
       recorded: { byId: actor.id, byName: actor.name, at: new Date(s.recorded_at).toISOString() },
     }
+  })
+}
+
+/** The batch's one INSERT (sent at once: the connection pipelines). */
+export function sendInsert(
+  t: Transaction,
+  part: LockedPart,
+  actor: Recorder,
+  readings: ReadingBody[],
+): Promise<InsertedRow[]> {
+  return preparedQuery<InsertedRow>(t, 'readings_insert', INSERT_READINGS, [
+    part.id,
+    part.lotId,
+    part.round,
+    actor.id,
+    readings.map((r) => r.areaNo),
+    readings.map((r) => r.spotNo),
+    readings.map((r) => r.thicknessUm),
+    readings.map((r) => r.instrumentId),
+    readings.map((r) => r.takenAt ?? null),
+    readings.map((r) => r.clientId),
+  ])
+}
+
+/** The audit event of stored readings (sent at once, like the verdict's UPDATE beside it). */
+export function sendRecordedAudit(
+  t: Transaction,
+  actor: Recorder,
+  part: LockedPart,
+  inserted: InsertedRow[],
+  verdict: PartVerdict,
+): Promise<void> {
+  return recordAudit(t, actor, {
+    action: 'readings.record',
+    entityType: 'part',
+    entityId: part.id,
+    lotId: part.lotId,
+    after: {
+      readingIds: inserted.map((r) => String(r.id)),
+      round: part.round,
+      suspectCount: inserted.filter((r) => r.suspect).length,
+      verdictStatus: verdict.status,
+      progress: verdict.samplingPlan.progress,
+    },
   })
 }
 
@@ -164,18 +211,7 @@ export async function postReadings(
     // pipelines; the read, later in the same transaction, sees the new rows); so do the verdict's
     // UPDATE and the audit event. One network round trip each instead of two.
     const [inserted, verdictRows] = await Promise.all([
-      preparedQuery<InsertedRow>(t, 'readings_insert', INSERT_READINGS, [
-        part.id,
-        part.lotId,
-        part.round,
-        actor.id,
-        readings.map((r) => r.areaNo),
-        readings.map((r) => r.spotNo),
-        readings.map((r) => r.thicknessUm),
-        readings.map((r) => r.instrumentId),
-        readings.map((r) => r.takenAt ?? null),
-        readings.map((r) => r.clientId),
-      ]),
+      sendInsert(t, part, actor, readings),
       loadVerdictRows(part.id, part.round, t),
     ])
     if (inserted.length < readings.length) {
@@ -202,19 +238,7 @@ export async function postReadings(
     const verdict = judged.verdict
     const last = [
       storeVerdict(part.id, judged, t),
-      recordAudit(t, actor, {
-        action: 'readings.record',
-        entityType: 'part',
-        entityId: part.id,
-        lotId: part.lotId,
-        after: {
-          readingIds: inserted.map((r) => String(r.id)),
-          round: part.round,
-          suspectCount: inserted.filter((r) => r.suspect).length,
-          verdictStatus: verdict.status,
-          progress: verdict.samplingPlan.progress,
-        },
-      }),
+      sendRecordedAudit(t, actor, part, inserted, verdict),
     ] as const
     let rows: ReadingRow[]
     if (inserted.length === readings.length) {
