@@ -37,8 +37,12 @@ export async function recordAudit(t: Transaction, actor: AuditActor | null, entr
   // and validating a model instance cost more than the INSERT itself; prepared once per
   // connection. Same columns, same values (`at` is this server's clock, as the model's default was).
   const json = (v: unknown) => {
-    const plain = v === undefined ? null : snapshot(v)
-    return plain === null ? null : JSON.stringify(plain) // SQL NULL, not JSON null, for "none"
+    if (v === undefined || v === null) return null // SQL NULL, not JSON null, for "none"
+    const plain =
+      typeof (v as { get?: unknown }).get === 'function'
+        ? (v as { get: (o: { plain: true }) => unknown }).get({ plain: true })
+        : v
+    return JSON.stringify(plain, withoutSecrets) // what snapshot() keeps, in one pass
   }
   await preparedQuery(t, 'audit_event_insert', INSERT_AUDIT_EVENT, [
     new Date(),
@@ -52,6 +56,11 @@ export async function recordAudit(t: Transaction, actor: AuditActor | null, entr
     json(entry.after),
     entry.note ?? '',
   ])
+}
+
+/** JSON.stringify replacer: a password hash never reaches the audit trail, at any depth. */
+function withoutSecrets(key: string, value: unknown) {
+  return key === 'passwordHash' ? undefined : value
 }
 
 const INSERT_AUDIT_EVENT = `

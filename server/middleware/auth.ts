@@ -7,6 +7,7 @@ import { env } from '../config/env'
 import { HttpError } from '../lib/httpError'
 import { User } from '../db/models'
 import { findSignedInUser } from './userCache'
+import { rememberVerifiedTokens } from './verifiedTokens'
 import type { SessionUser } from '../../shared/api/auth'
 
 /**
@@ -21,6 +22,7 @@ interface TokenClaims {
   tv: number
 }
 
+rememberVerifiedTokens()
 passport.use(
   new JwtStrategy(
     {

@@ -117,3 +117,50 @@ describe('forged tokens', () => {
     expectSignedOut(await request(app).get(`/api/auth/me?access_token=${token}`))
   })
 })
+
+/**
+ * A token whose signature passed is remembered until it expires (server/middleware/verifiedTokens.ts):
+ * what was refused before must still be refused after the same user's good token was accepted.
+ */
+describe('tokens after one was accepted and remembered', () => {
+  let user: User
+  beforeAll(async () => {
+    user = await createUser('operator')
+  })
+
+  it('refuses it once it expires, though it was accepted a moment before', async () => {
+    const token = jwt.sign({ tv: user.tokenVersion }, secret, {
+      subject: String(user.id),
+      expiresIn: 1,
+    })
+    expect((await me(`Bearer ${token}`)).status).toBe(200)
+    expect((await me(`Bearer ${token}`)).status).toBe(200)
+    const { exp } = jwt.decode(token) as { exp: number }
+    await new Promise((r) => setTimeout(r, Math.max(0, exp * 1000 - Date.now()) + 50))
+    expectSignedOut(await me(`Bearer ${token}`))
+  })
+
+  it('refuses the same token with one character of its signature or payload changed', async () => {
+    const token = await tokenFor(app, user)
+    expect((await me(token)).status).toBe(200)
+    const [head, payload, signature] = token.replace('Bearer ', '').split('.')
+    const flip = (s: string, i: number) =>
+      s.slice(0, i) + (s[i] === 'A' ? 'B' : 'A') + s.slice(i + 1)
+    expectSignedOut(await me(`Bearer ${head}.${payload}.${flip(signature!, 3)}`))
+    const otherClaims = Buffer.from(JSON.stringify({ tv: user.tokenVersion, sub: '1' })).toString(
+      'base64url',
+    )
+    expectSignedOut(await me(`Bearer ${head}.${otherClaims}.${signature}`))
+  })
+
+  it('refuses it after a deactivation, though its signature is remembered', async () => {
+    const token = await tokenFor(app, user)
+    expect((await me(token)).status).toBe(200)
+    await user.update({ active: false })
+    try {
+      expectSignedOut(await me(token))
+    } finally {
+      await user.update({ active: true })
+    }
+  })
+})
