@@ -32,10 +32,20 @@ export function snapshot(record: unknown): unknown {
  * Appends one audit event inside the caller's transaction, so the change and its record
  * land together or not at all. The table refuses UPDATE/DELETE at the database level.
  */
-export async function recordAudit(t: Transaction, actor: AuditActor | null, entry: AuditEntry) {
-  // Plain SQL rather than AuditEvent.create: every write of the product lands here, and building
-  // and validating a model instance cost more than the INSERT itself; prepared once per
-  // connection. Same columns, same values (`at` is this server's clock, as the model's default was).
+export function recordAudit(t: Transaction, actor: AuditActor | null, entry: AuditEntry) {
+  return recordAudits(t, [{ actor, entry }])
+}
+
+/**
+ * Several audit events in one statement (readings POSTs stored together), in the order given.
+ * Plain SQL rather than AuditEvent.create: every write of the product lands here, and building
+ * and validating a model instance cost more than the INSERT itself; prepared once per
+ * connection. Same columns, same values (`at` is this server's clock, as the model's default was).
+ */
+export async function recordAudits(
+  t: Transaction,
+  events: { actor: AuditActor | null; entry: AuditEntry }[],
+): Promise<void> {
   const json = (v: unknown) => {
     if (v === undefined || v === null) return null // SQL NULL, not JSON null, for "none"
     const plain =
@@ -44,17 +54,18 @@ export async function recordAudit(t: Transaction, actor: AuditActor | null, entr
         : v
     return JSON.stringify(plain, withoutSecrets) // what snapshot() keeps, in one pass
   }
-  await preparedQuery(t, 'audit_event_insert', INSERT_AUDIT_EVENT, [
-    new Date(),
-    actor?.id ?? null,
-    actor?.email ?? null,
-    entry.action,
-    entry.entityType,
-    String(entry.entityId),
-    entry.lotId ?? null,
-    json(entry.before),
-    json(entry.after),
-    entry.note ?? '',
+  const at = new Date()
+  await preparedQuery(t, 'audit_events_insert', INSERT_AUDIT_EVENTS, [
+    events.map(() => at),
+    events.map((e) => e.actor?.id ?? null),
+    events.map((e) => e.actor?.email ?? null),
+    events.map((e) => e.entry.action),
+    events.map((e) => e.entry.entityType),
+    events.map((e) => String(e.entry.entityId)),
+    events.map((e) => e.entry.lotId ?? null),
+    events.map((e) => json(e.entry.before)),
+    events.map((e) => json(e.entry.after)),
+    events.map((e) => e.entry.note ?? ''),
   ])
 }
 
@@ -63,6 +74,12 @@ function withoutSecrets(key: string, value: unknown) {
   return key === 'passwordHash' ? undefined : value
 }
 
-const INSERT_AUDIT_EVENT = `
+/** WITH ORDINALITY … ORDER BY: the events get their ids in the order given. */
+const INSERT_AUDIT_EVENTS = `
   INSERT INTO audit_events (at, actor_id, actor_email, action, entity_type, entity_id, lot_id, before, after, note)
-  VALUES ($1, $2, $3, $4, $5, $6, $7, $8::jsonb, $9::jsonb, $10)`
+  SELECT e.at, e.actor_id, e.actor_email, e.action, e.entity_type, e.entity_id, e.lot_id,
+         e.before::jsonb, e.after::jsonb, e.note
+    FROM unnest($1::timestamptz[], $2::int[], $3::text[], $4::text[], $5::text[], $6::text[],
+                $7::int[], $8::text[], $9::text[], $10::text[]) WITH ORDINALITY
+      AS e(at, actor_id, actor_email, action, entity_type, entity_id, lot_id, before, after, note, n)
+   ORDER BY e.n`

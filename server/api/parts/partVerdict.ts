@@ -19,38 +19,61 @@ export interface PartForVerdict {
   coatedAreaM2: number | null
 }
 
+export interface VerdictRows {
+  sections: SectionRowInput[]
+  carried: SectionName[]
+  readings: ReadingRowInput[]
+}
+
 /**
  * The part's current sections and live readings, in one round trip. The query is sent at once
  * (the connection pipelines): a caller may start it right behind the write whose rows it must
  * see, in the same transaction, and await both together.
  */
-export async function loadVerdictRows(partId: number, round: number, t: Transaction) {
-  const [row] = await preparedQuery<{
+export async function loadVerdictRows(
+  partId: number,
+  round: number,
+  t: Transaction,
+): Promise<VerdictRows> {
+  return (await loadVerdictRowsOf([{ id: partId, round }], t)).get(partId)!
+}
+
+/** The same for several parts in one statement (readings POSTs stored together). */
+export async function loadVerdictRowsOf(
+  parts: { id: number; round: number }[],
+  t: Transaction,
+): Promise<Map<number, VerdictRows>> {
+  const rows = await preparedQuery<{
+    part_id: number
     sections: SectionRowInput[] | null
     carried: SectionName[] | null
     readings: ReadingRowInput[] | null
   }>(
     t,
-    'part_verdict_rows',
-    `SELECT
+    'parts_verdict_rows',
+    `SELECT x.part_id,
        (SELECT json_agg(json_build_object('section', s.section, 'round', s.round, 'data', s.data) ORDER BY s.id)
           FROM (SELECT DISTINCT ON (section) id, section, round, data FROM section_records
-                 WHERE part_id = $1 AND (round = $2 OR (round < $2 AND section = ANY(
-                   COALESCE((SELECT carried_sections FROM parts WHERE id = $1), '{}'))))
+                 WHERE part_id = x.part_id AND (round = x.round OR (round < x.round AND section = ANY(
+                   COALESCE((SELECT carried_sections FROM parts WHERE id = x.part_id), '{}'))))
                  ORDER BY section, round DESC, id DESC) s) AS sections,
-       (SELECT carried_sections FROM parts WHERE id = $1) AS carried,
+       (SELECT carried_sections FROM parts WHERE id = x.part_id) AS carried,
        (SELECT json_agg(json_build_object('round', r.round, 'areaNo', r.area_no, 'spotNo', r.spot_no,
                  'thicknessUm', r.thickness_um, 'discarded', false, 'suspect', r.suspect,
                  'instrumentKind', i.kind) ORDER BY r.area_no, r.spot_no, r.id)
           FROM gauge_readings r JOIN instruments i ON i.id = r.instrument_id
-         WHERE r.part_id = $1 AND r.round = $2 AND r.discarded_at IS NULL) AS readings`,
-    [partId, round],
+         WHERE r.part_id = x.part_id AND r.round = x.round AND r.discarded_at IS NULL) AS readings
+     FROM unnest($1::int[], $2::int[]) AS x(part_id, round)`,
+    [parts.map((p) => p.id), parts.map((p) => p.round)],
   )
-  return {
-    sections: row?.sections ?? [],
-    carried: row?.carried ?? [],
-    readings: row?.readings ?? [],
-  }
+  const byPart = new Map<number, VerdictRows>()
+  for (const row of rows)
+    byPart.set(row.part_id, {
+      sections: row.sections ?? [],
+      carried: row.carried ?? [],
+      readings: row.readings ?? [],
+    })
+  return byPart
 }
 
 /** The verdict of a part from rows (no database): what the seed and the server both use. */
@@ -99,17 +122,33 @@ export function verdictFromStoredRows(
 }
 
 /** Stores a recomputed verdict (sent at once: it may be awaited together with the audit event). */
-export async function storeVerdict(
+export function storeVerdict(
   partId: number,
   judged: ReturnType<typeof verdictFromRows>,
   t: Transaction,
 ): Promise<void> {
+  return storeVerdicts([{ partId, judged }], t)
+}
+
+/** The same for several parts in one statement. */
+export async function storeVerdicts(
+  verdicts: { partId: number; judged: ReturnType<typeof verdictFromRows> }[],
+  t: Transaction,
+): Promise<void> {
   await preparedQuery(
     t,
-    'part_verdict_store',
-    `UPDATE parts SET verdict = $2, verdict_status = $3, thickness_mean_um = $4,
-       first_pass_status = CASE WHEN round = 1 THEN $3 ELSE first_pass_status END, updated_at = now()
-     WHERE id = $1`,
-    [partId, JSON.stringify(judged.verdict), judged.verdict.status, judged.thicknessMeanUm],
+    'parts_verdict_store',
+    `UPDATE parts p SET verdict = v.verdict::jsonb, verdict_status = v.status,
+       thickness_mean_um = v.mean_um,
+       first_pass_status = CASE WHEN p.round = 1 THEN v.status ELSE p.first_pass_status END,
+       updated_at = now()
+     FROM unnest($1::int[], $2::text[], $3::text[], $4::float8[]) AS v(id, verdict, status, mean_um)
+     WHERE p.id = v.id`,
+    [
+      verdicts.map((v) => v.partId),
+      verdicts.map((v) => JSON.stringify(v.judged.verdict)),
+      verdicts.map((v) => v.judged.verdict.status),
+      verdicts.map((v) => v.judged.thicknessMeanUm),
+    ],
   )
 }

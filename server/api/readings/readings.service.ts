@@ -3,7 +3,7 @@ import type { z } from 'zod'
 import { sequelize } from '../../db'
 import { commitWith, inPipelinedTransaction } from '../../db/pipelinedTransaction'
 import { preparedQuery } from '../../db/prepared'
-import { recordAudit, type AuditActor } from '../../audit/audit.service'
+import { recordAudit, type AuditActor, type AuditEntry } from '../../audit/audit.service'
 import { HttpError, conflict } from '../../lib/httpError'
 import type { ReadingRow, ReadingsBatchResult, readingSchema } from '../../../shared/api/lots'
 import type { PartVerdict } from '../../../shared/rules/evaluatePart'
@@ -79,6 +79,7 @@ function inSentOrder(rows: ReadingRow[], readings: ReadingBody[]): ReadingRow[] 
 
 export interface InsertedRow {
   id: string
+  part_id: number
   client_id: string
   suspect: boolean
   taken_at: Date
@@ -121,17 +122,27 @@ export function sendInsert(
   actor: Recorder,
   readings: ReadingBody[],
 ): Promise<InsertedRow[]> {
-  return preparedQuery<InsertedRow>(t, 'readings_insert', INSERT_READINGS, [
-    part.id,
-    part.lotId,
-    part.round,
-    actor.id,
-    readings.map((r) => r.areaNo),
-    readings.map((r) => r.spotNo),
-    readings.map((r) => r.thicknessUm),
-    readings.map((r) => r.instrumentId),
-    readings.map((r) => r.takenAt ?? null),
-    readings.map((r) => r.clientId),
+  return sendInserts(t, [{ part, actor, readings }])
+}
+
+/** The batches of several parts in the same one INSERT; the rows come back with their part_id. */
+export function sendInserts(
+  t: Transaction,
+  batches: { part: LockedPart; actor: Recorder; readings: ReadingBody[] }[],
+): Promise<InsertedRow[]> {
+  const each = <T>(pick: (b: (typeof batches)[number], r: ReadingBody) => T) =>
+    batches.flatMap((b) => b.readings.map((r) => pick(b, r)))
+  return preparedQuery<InsertedRow>(t, 'readings_insert_many', INSERT_READINGS, [
+    each((b) => b.part.id),
+    each((b) => b.part.lotId),
+    each((b) => b.part.round),
+    each((b) => b.actor.id),
+    each((_, r) => r.areaNo),
+    each((_, r) => r.spotNo),
+    each((_, r) => r.thicknessUm),
+    each((_, r) => r.instrumentId),
+    each((_, r) => r.takenAt ?? null),
+    each((_, r) => r.clientId),
   ])
 }
 
@@ -143,7 +154,15 @@ export function sendRecordedAudit(
   inserted: InsertedRow[],
   verdict: PartVerdict,
 ): Promise<void> {
-  return recordAudit(t, actor, {
+  return recordAudit(t, actor, recordedAuditEntry(part, inserted, verdict))
+}
+
+export function recordedAuditEntry(
+  part: LockedPart,
+  inserted: InsertedRow[],
+  verdict: PartVerdict,
+): AuditEntry {
+  return {
     action: 'readings.record',
     entityType: 'part',
     entityId: part.id,
@@ -155,7 +174,7 @@ export function sendRecordedAudit(
       verdictStatus: verdict.status,
       progress: verdict.samplingPlan.progress,
     },
-  })
+  }
 }
 
 /** A batch whose every reading is already stored for this part: answer it as stored. */

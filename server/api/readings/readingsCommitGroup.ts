@@ -5,23 +5,25 @@ import { HttpError } from '../../lib/httpError'
 import { logger } from '../../lib/logger'
 import type { ReadingsBatchResult, readingSchema } from '../../../shared/api/lots'
 import { assertLotOpen } from '../lots/lotGuards'
-import { lockPartForWrite, type LockedPart } from '../parts/partLock'
-import { loadVerdictRows, storeVerdict, verdictFromStoredRows } from '../parts/partVerdict'
+import { recordAudits } from '../../audit/audit.service'
+import { lockPartsForWrite, type LockedPart } from '../parts/partLock'
+import { loadVerdictRowsOf, storeVerdicts, verdictFromStoredRows } from '../parts/partVerdict'
 import {
   checkBatchShape,
   checkGauges,
   postReadings,
+  recordedAuditEntry,
   rowsAsInserted,
-  sendInsert,
-  sendRecordedAudit,
+  sendInserts,
+  type InsertedRow,
   type Recorder,
 } from './readings.service'
 
 /**
  * Group commit for readings POSTs. While readings of other parts are being stored, the POSTs that
  * arrive meanwhile wait (microseconds to milliseconds) and are then stored together in one
- * transaction: one BEGIN, one COMMIT, three network round trips for the whole group instead of
- * three each. Each POST still gets exactly the answer, the verdict and the audit event it would
+ * transaction: one BEGIN, one COMMIT, three network round trips and five statements for the
+ * whole group instead of three round trips and five statements each. Each POST still gets exactly the answer, the verdict and the audit event it would
  * get alone; nothing is acknowledged before the COMMIT that stored it.
  *
  * A group only takes the plain case: every part exists, its lot is open, the gauges are usable
@@ -130,26 +132,27 @@ interface Checked {
   serials: Map<number, string>
 }
 
+/** Five statements for the whole group: the locks, the INSERT, the verdicts' rows, the UPDATE, the audit. */
 async function storeTogether(group: WaitingPost[], t: Transaction) {
-  // Locks in part id order, like every other group: two groups never wait on each other in a ring.
-  const ordered = [...group].sort((a, b) => a.partId - b.partId)
-  const locks = await Promise.allSettled(ordered.map((post) => lockPartForWrite(post.partId, t)))
-  const failed = locks.find((l) => l.status === 'rejected' && !(l.reason instanceof HttpError))
-  if (failed) throw (failed as PromiseRejectedResult).reason
+  // One statement takes every lock, in part id order: two groups never wait on each other in a ring.
+  const locked = await lockPartsForWrite(
+    group.map((post) => post.partId),
+    t,
+  )
   const checked: Checked[] = []
   const alone: WaitingPost[] = []
-  for (const [i, lock] of locks.entries()) {
-    const post = ordered[i]!
-    if (lock.status === 'rejected') {
+  for (const post of group) {
+    const part = locked.get(post.partId)
+    if (!part) {
       alone.push(post) // no such part: its 404 comes from postReadings
       continue
     }
     try {
       assertLotOpen(
-        { lotNumber: lock.value.lotNumber, status: lock.value.lotStatus },
+        { lotNumber: part.lotNumber, status: part.lotStatus },
         'before readings are added',
       )
-      checked.push({ post, part: lock.value, serials: await checkGauges(post.readings, t) })
+      checked.push({ post, part, serials: await checkGauges(post.readings, t) })
     } catch (err) {
       if (!(err instanceof HttpError)) throw err
       alone.push(post) // its error, or its replay answer, comes from postReadings
@@ -157,42 +160,53 @@ async function storeTogether(group: WaitingPost[], t: Transaction) {
   }
   if (checked.length === 0) return { stored: [] as [WaitingPost, ReadingsOutcome][], alone }
 
-  const written = await Promise.all(
-    checked.map(({ post, part }) =>
-      Promise.all([
-        sendInsert(t, part, post.actor, post.readings),
-        loadVerdictRows(part.id, part.round, t),
-      ]),
+  // The INSERT and the read of the parts' rows leave together; the read sees the new rows.
+  const [inserted, verdictRows] = await Promise.all([
+    sendInserts(
+      t,
+      checked.map(({ post, part }) => ({ part, actor: post.actor, readings: post.readings })),
     ),
-  )
-  if (written.some(([inserted], i) => inserted.length !== checked[i]!.post.readings.length))
+    loadVerdictRowsOf(
+      checked.map(({ part }) => part),
+      t,
+    ),
+  ])
+  const insertedOf = new Map<number, InsertedRow[]>()
+  for (const row of inserted) {
+    const rows = insertedOf.get(row.part_id)
+    if (rows) rows.push(row)
+    else insertedOf.set(row.part_id, [row])
+  }
+  if (checked.some(({ post, part }) => insertedOf.get(part.id)?.length !== post.readings.length))
     throw new PlainCaseOnly()
 
-  const stored = checked.map(({ post, part, serials }, i) => {
-    const [inserted, rows] = written[i]!
-    const judged = verdictFromStoredRows(part.spec, part, rows)
+  const stored = checked.map(({ post, part, serials }) => {
+    const rows = insertedOf.get(part.id)!
+    const judged = verdictFromStoredRows(part.spec, part, verdictRows.get(part.id)!)
     const outcome: ReadingsOutcome = {
       result: {
-        readings: rowsAsInserted(inserted, post.readings, part.round, post.actor, serials),
-        storedCount: inserted.length,
+        readings: rowsAsInserted(rows, post.readings, part.round, post.actor, serials),
+        storedCount: rows.length,
         partId: part.id,
         partVersion: part.version,
         verdict: judged.verdict,
       },
       created: true,
     }
-    return {
-      post,
-      outcome,
-      writes: [
-        storeVerdict(part.id, judged, t),
-        sendRecordedAudit(t, post.actor, part, inserted, judged.verdict),
-      ],
-    }
+    return { post, part, rows, judged, outcome }
   })
-  await commitWith(
-    t,
-    stored.flatMap((s) => s.writes),
-  )
+  await commitWith(t, [
+    storeVerdicts(
+      stored.map((s) => ({ partId: s.part.id, judged: s.judged })),
+      t,
+    ),
+    recordAudits(
+      t,
+      stored.map((s) => ({
+        actor: s.post.actor,
+        entry: recordedAuditEntry(s.part, s.rows, s.judged.verdict),
+      })),
+    ),
+  ])
   return { stored: stored.map((s) => [s.post, s.outcome] as [WaitingPost, ReadingsOutcome]), alone }
 }
