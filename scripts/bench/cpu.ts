@@ -24,14 +24,21 @@ export function processCpuMs(pid: number): number {
   return statOf(pid)?.cpuMs ?? NaN
 }
 
-/** CPU of every child of the postmaster (the backends, and the background processes). */
-export function postgresCpuMs(postmasterPid: number): number {
-  let total = 0
+/** CPU of every child of the postmaster (the backends, and the background processes), by pid. */
+export function postgresCpuMs(postmasterPid: number): Map<number, number> {
+  const byPid = new Map<number, number>()
   for (const name of readdirSync('/proc')) {
     if (!/^\d+$/.test(name)) continue
     const st = statOf(Number(name))
-    if (st && st.ppid === postmasterPid) total += st.cpuMs
+    if (st && st.ppid === postmasterPid) byPid.set(Number(name), st.cpuMs)
   }
+  return byPid
+}
+
+/** CPU the backends spent between two readings: a backend that exited meanwhile counts 0. */
+function postgresCpuSince(before: Map<number, number>, postmasterPid: number): number {
+  let total = 0
+  for (const [pid, ms] of postgresCpuMs(postmasterPid)) total += ms - (before.get(pid) ?? 0)
   return total
 }
 
@@ -49,10 +56,11 @@ export function cpuSpan(serverPid: number, postmasterPid: number): CpuSpan {
   const p0 = postgresCpuMs(postmasterPid)
   return {
     end(requests: number) {
-      // a backend that exited during the span takes its CPU with it: slightly low, never high
+      // a backend that exited during the span (an idle pooled connection closing) takes its
+      // CPU of the span with it: slightly low, never high, never below zero
       return {
         serverMsPerReq: (processCpuMs(serverPid) - s0) / requests,
-        postgresMsPerReq: (postgresCpuMs(postmasterPid) - p0) / requests,
+        postgresMsPerReq: postgresCpuSince(p0, postmasterPid) / requests,
       }
     },
   }
