@@ -19,11 +19,7 @@ export interface AuditEntry {
 /** Plain JSON of a model or object, without secrets, for the before/after columns. */
 export function snapshot(record: unknown): unknown {
   if (record === null || record === undefined) return null
-  const plain =
-    typeof (record as { get?: unknown }).get === 'function'
-      ? (record as { get: (o: { plain: true }) => unknown }).get({ plain: true })
-      : record
-  const copy = JSON.parse(JSON.stringify(plain)) as Record<string, unknown>
+  const copy = JSON.parse(JSON.stringify(plainOf(record))) as Record<string, unknown>
   delete copy.passwordHash
   return copy
 }
@@ -48,11 +44,7 @@ export async function recordAudits(
 ): Promise<void> {
   const json = (v: unknown) => {
     if (v === undefined || v === null) return null // SQL NULL, not JSON null, for "none"
-    const plain =
-      typeof (v as { get?: unknown }).get === 'function'
-        ? (v as { get: (o: { plain: true }) => unknown }).get({ plain: true })
-        : v
-    return JSON.stringify(plain, withoutSecrets) // what snapshot() keeps, in one pass
+    return JSON.stringify(plainOf(v), withoutSecrets) // what snapshot() keeps, in one pass
   }
   const at = new Date()
   await preparedQuery(t, 'audit_events_insert', INSERT_AUDIT_EVENTS, [
@@ -67,6 +59,13 @@ export async function recordAudits(
     events.map((e) => json(e.entry.after)),
     events.map((e) => e.entry.note ?? ''),
   ])
+}
+
+/** A model's plain values, or the value itself. */
+function plainOf(record: unknown): unknown {
+  return typeof (record as { get?: unknown }).get === 'function'
+    ? (record as { get: (o: { plain: true }) => unknown }).get({ plain: true })
+    : record
 }
 
 /** JSON.stringify replacer: a password hash never reaches the audit trail, at any depth. */

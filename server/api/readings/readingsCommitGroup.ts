@@ -23,8 +23,9 @@ import {
  * Group commit for readings POSTs. While readings of other parts are being stored, the POSTs that
  * arrive meanwhile wait (microseconds to milliseconds) and are then stored together in one
  * transaction: one BEGIN, one COMMIT, three network round trips and five statements for the
- * whole group instead of three round trips and five statements each. Each POST still gets exactly the answer, the verdict and the audit event it would
- * get alone; nothing is acknowledged before the COMMIT that stored it.
+ * whole group instead of three round trips and five statements each. Each POST still gets exactly
+ * the answer, the verdict and the audit event it would get alone; nothing is acknowledged before
+ * the COMMIT that stored it.
  *
  * A group only takes the plain case: every part exists, its lot is open, the gauges are usable
  * and every reading is new. A POST that fails a check before anything is written is taken out
@@ -54,8 +55,8 @@ const GROUP_MAX = 24
 const waiting: WaitingPost[] = []
 let inFlight = 0
 
-/** What a test or the benchmark may read: how many POSTs were stored in groups of two or more. */
-export const commitGroupStats = { groups: 0, groupedPosts: 0, largest: 0, fallbacks: 0 }
+/** For the tests: groups stored, POSTs stored in them, groups rolled back to run alone. */
+export const commitGroupStats = { groups: 0, groupedPosts: 0, fallbacks: 0 }
 
 /** POST /api/parts/:id/readings: stored alone or with the POSTs of other parts that came meanwhile. */
 export function submitReadings(
@@ -110,7 +111,6 @@ async function storeGroup(group: WaitingPost[]): Promise<void> {
     ;({ stored, alone } = await inPipelinedTransaction((t) => storeTogether(group, t)))
     commitGroupStats.groups += 1
     commitGroupStats.groupedPosts += stored.length
-    commitGroupStats.largest = Math.max(commitGroupStats.largest, stored.length)
   } catch (err) {
     // Rolled back (or its COMMIT's answer lost): nothing is acknowledged, each POST runs alone.
     if (!(err instanceof PlainCaseOnly))

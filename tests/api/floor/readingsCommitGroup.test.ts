@@ -89,6 +89,11 @@ async function submitTogether(posts: { partId: number; readings: unknown[] }[]) 
   })
 }
 
+/**
+ * One SSPC-PA 2 spot (three gauge readings [R]). The values, 400–430 µm (15.7–16.9 mil), are
+ * invented test data inside FBE_SPEC's 12–20 mil band (floorSupport.ts; TRADE.md §1 [P]); the
+ * assertions compare each POST with its own values, not with a band verdict.
+ */
 const spot = (um: number[]) => spotReadings(gaugeId, [um])
 
 describe('readings POSTs of several parts stored in one transaction', () => {

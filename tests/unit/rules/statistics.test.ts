@@ -55,13 +55,9 @@ describe('capability — overall sample sd (n − 1) [R formulas; cross-checked 
     expect(capability([300, 300, 300], 250, 350).cp).toBeUndefined()
     // float noise is no spread: CI once found Cp ≈ 10¹⁴ for these
     expect(capability([100.00000000000004, 100, 100.00000000000014], 50, 150).cp).toBeUndefined()
-    expect(
-      capability(
-        [4, 4, 4].map((mil) => mil * 25.4),
-        50,
-        150,
-      ).cpk,
-    ).toBeUndefined()
+    // the same film typed as 10.1 mil on one tablet (× 25.4, TRADE.md intro [R]) and as 256.54 µm
+    // on two others: 256.53999999999996 vs 256.54, an sd of 6e-14 µm that once gave Cp ≈ 10¹²
+    expect(capability([10.1 * 25.4, 256.54, 256.54], 200, 300).cpk).toBeUndefined()
     // the trends page (σ from the database) draws the same line
     expect(indicesFrom(100, 7e-14, 50, 150).cpk).toBeNull()
     expect(indicesFrom(100, 0.5, 50, 150).cp).toBeCloseTo(100 / 3, 12)
