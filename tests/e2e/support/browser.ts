@@ -69,11 +69,25 @@ export async function signIn(page: Page, email: string, password: string = DEMO_
   await page.getByRole('button', { name: 'Your account and units' }).waitFor()
 }
 
-/** Picks `option` in the Vuetify select labelled `label` (its input is hidden; the field is the target). */
+/**
+ * Picks `option` in the Vuetify select labelled `label` (its input is hidden; the field is the
+ * target) and waits until the field shows it. On a busy machine a click can land while the menu
+ * is still opening and select nothing (a fresh-clone CI run saw it): then it opens and picks again.
+ */
 export async function chooseOption(page: Page, label: string, option: string) {
   const field = page.locator('.v-input').filter({ has: page.locator('label', { hasText: label }) })
-  await field.locator('.v-field').first().click()
-  await page.getByRole('option', { name: option, exact: true }).click()
+  const chosen = field.locator('.v-select__selection').getByText(option, { exact: true })
+  for (let attempt = 1; ; attempt++) {
+    const menu = page.getByRole('listbox')
+    if (!(await menu.isVisible())) await field.locator('.v-field').first().click()
+    await page.getByRole('option', { name: option, exact: true }).click()
+    try {
+      await chosen.waitFor({ timeout: 3000 })
+      return
+    } catch (err) {
+      if (attempt === 3) throw err
+    }
+  }
 }
 
 export async function screenshot(page: Page, name: string, fullPage = true) {
