@@ -71,6 +71,8 @@ for (const [size, viewport] of [
       await checkPage(page, `setup-people-add-${size}`)
       await page.getByRole('button', { name: 'Add person' }).click()
       await page.getByText(`can now sign in as ${email}`).waitFor()
+      // The notice shows at once; the list is fetched again after it, so wait for the row.
+      await page.getByRole('cell', { name: email }).waitFor()
       await expect(page.getByRole('cell', { name: email }).count()).resolves.toBe(1)
       const res = await fetch(`${BASE_URL}/api/auth/login`, {
         method: 'POST',
