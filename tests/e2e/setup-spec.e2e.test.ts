@@ -54,7 +54,7 @@ describe('Setup → Coating specs, in the browser', () => {
       'People',
       'Plant settings',
     ]) {
-      await expect(drawer.getByText(entry, { exact: true }).count()).resolves.toBe(1)
+      await expect.poll(() => drawer.getByText(entry, { exact: true }).count()).toBe(1)
     }
     await page.waitForLoadState('networkidle')
     await screenshot(page, 'admin-home-1280x800')
@@ -97,9 +97,9 @@ describe('Setup → Coating specs, in the browser', () => {
     await page.getByRole('link', { name: 'All specs' }).click()
     const row = page.locator('tr[data-spec-code="E2E-FBE-16"]')
     await row.waitFor()
-    await expect(row.locator('[data-test="spec-band"]').textContent()).resolves.toBe(
-      '12.0–20.0 mil',
-    )
+    await expect
+      .poll(() => row.locator('[data-test="spec-band"]').textContent())
+      .toBe('12.0–20.0 mil')
     await screenshot(page, 'spec-list-1280x800')
 
     // What was stored: micrometres, converted exactly (12 × 25.4 = 304.8; 20 × 25.4 = 508).

@@ -55,9 +55,11 @@ describe('certificates in the browser', () => {
     await title.waitFor()
     number = ((await title.textContent()) ?? '').replace('Certificate', '').trim()
     expect(number).toMatch(/^HFW-C-\d{2}-\d{5}$/)
-    await expect(page.locator('[data-state="valid"]').count()).resolves.toBeGreaterThan(0)
+    await expect.poll(() => page.locator('[data-state="valid"]').count()).toBeGreaterThan(0)
     // The e-mail is queued for both Ashvale certificate contacts (demo seed).
-    await expect(page.locator('[data-test="deliveries"] [data-recipient]').count()).resolves.toBe(2)
+    await expect
+      .poll(() => page.locator('[data-test="deliveries"] [data-recipient]').count())
+      .toBe(2)
     await screenshot(page, 'certificate-detail-issued')
   })
 
@@ -100,8 +102,8 @@ describe('certificates in the browser', () => {
         number,
       )
       // No sign-in, no menu, nothing about the customer or the parts.
-      await expect(anon.page.getByRole('navigation').count()).resolves.toBe(0)
-      await expect(anon.page.locator('body').textContent()).resolves.not.toMatch(/Ashvale|order/i)
+      await expect.poll(() => anon.page.getByRole('navigation').count()).toBe(0)
+      await expect.poll(() => anon.page.locator('body').textContent()).not.toMatch(/Ashvale|order/i)
       await screenshot(anon.page, 'verify-valid')
       expect(anon.problems).toEqual([])
     } finally {
@@ -133,7 +135,7 @@ describe('certificates in the browser', () => {
       await anon.page.goto(`${BASE_URL}${verifyPath}`)
       const state = anon.page.locator('[data-test="verify-state"]')
       await state.waitFor()
-      await expect(state.getAttribute('data-state')).resolves.toBe('superseded')
+      await expect.poll(() => state.getAttribute('data-state')).toBe('superseded')
       await screenshot(anon.page, 'verify-superseded')
       await anon.page.locator('[data-test="successor-link"]').click()
       await expect.poll(() => state.getAttribute('data-state')).toBe('revoked')

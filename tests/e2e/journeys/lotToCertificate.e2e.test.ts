@@ -118,9 +118,9 @@ for (const [size, viewport] of [
 
         await page.goto(`${BASE_URL}/line/lots/${lotId}`)
         await page.locator('[data-test="send-to-review"]').click()
-        await expect(
-          page.locator('[data-test="send-to-review-done"]').textContent(),
-        ).resolves.toContain('sent to review')
+        await expect
+          .poll(() => page.locator('[data-test="send-to-review-done"]').textContent())
+          .toContain('sent to review')
         await checkPage(page, `floor-lot-sent-${size}`)
         const after = (await api<LotDetail>(opToken, 'GET', `/api/lots/${lotId}`)).data
         expect(after.status).toBe('awaiting-review')
@@ -150,9 +150,9 @@ for (const [size, viewport] of [
 
         await page.locator('[data-test="lot-ncs"] [data-nc]').first().click()
         await page.locator('[data-test="nc-title"]').waitFor()
-        await expect(page.locator('[data-test="nc-defect"]').textContent()).resolves.toContain(
-          'Thin film',
-        )
+        await expect
+          .poll(() => page.locator('[data-test="nc-defect"]').textContent())
+          .toContain('Thin film')
         await checkPage(page, `review-nc-${size}`)
         await page.locator('[data-test="nc-disposition"] input[value="use-as-is"]').check()
         await page.locator('[data-test="nc-concession"] input').fill(`AWB-CON-${tag}`)
@@ -233,9 +233,9 @@ for (const [size, viewport] of [
         await state.waitFor()
         await expect(state.getAttribute('data-state')).resolves.toBe('valid')
         await expect(state.textContent()).resolves.toMatch(/valid/i)
-        await expect(page.locator('[data-test="verify-number"]').textContent()).resolves.toBe(
-          certNumber,
-        )
+        await expect
+          .poll(() => page.locator('[data-test="verify-number"]').textContent())
+          .toBe(certNumber)
         await checkPage(page, `verify-${size}`)
         expect(b.problems).toEqual([])
       } finally {

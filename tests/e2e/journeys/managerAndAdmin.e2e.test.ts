@@ -41,12 +41,16 @@ for (const [size, viewport] of [
       await page.goto(`${BASE_URL}/line-health?from=${from}&to=${to}&line=fbe-powder`)
       await page.getByRole('heading', { name: 'Line health' }).waitFor()
       await page.locator('[data-test="trend-yield"] canvas').waitFor()
-      await expect(page.locator('[data-test="filter-from"] input').inputValue()).resolves.toBe(from)
-      await expect(page.locator('[data-test="filter-line"]').textContent()).resolves.toContain(
-        'FBE powder line',
-      )
+      await expect
+        .poll(() => page.locator('[data-test="filter-from"] input').inputValue())
+        .toBe(from)
+      await expect
+        .poll(() => page.locator('[data-test="filter-line"]').textContent())
+        .toContain('FBE powder line')
       for (const card of ['trend-yield', 'trend-pareto', 'trend-histogram', 'trend-throughput']) {
-        await expect(page.locator(`[data-test="${card}"] canvas`).count(), card).resolves.toBe(1)
+        await expect
+          .poll(() => page.locator(`[data-test="${card}"] canvas`).count(), { message: card })
+          .toBe(1)
       }
       await checkPage(page, `trends-${size}`)
       expect(b.problems).toEqual([])
@@ -73,7 +77,7 @@ for (const [size, viewport] of [
       await page.getByText(`can now sign in as ${email}`).waitFor()
       // The notice shows at once; the list is fetched again after it, so wait for the row.
       await page.getByRole('cell', { name: email }).waitFor()
-      await expect(page.getByRole('cell', { name: email }).count()).resolves.toBe(1)
+      await expect.poll(() => page.getByRole('cell', { name: email }).count()).toBe(1)
       const res = await fetch(`${BASE_URL}/api/auth/login`, {
         method: 'POST',
         headers: { 'Content-Type': 'application/json' },
@@ -104,7 +108,7 @@ for (const [size, viewport] of [
       await page.locator('[data-test="save-spec"]').click()
       const saved = page.locator('[data-test="spec-saved"]')
       await saved.waitFor()
-      await expect(saved.textContent()).resolves.toContain(`Saved as version ${before + 1}.`)
+      await expect.poll(() => saved.textContent()).toContain(`Saved as version ${before + 1}.`)
       await checkPage(page, `setup-spec-detail-${size}`)
       expect(b.problems).toEqual([])
     })

@@ -90,17 +90,17 @@ describe('QA review in the browser', () => {
     await page.goto(`${BASE_URL}/review/queue`)
     const row = page.locator(`[data-test="queue-awaiting"] [data-lot="${lot.lotNumber}"]`)
     await row.waitFor()
-    await expect(row.locator('[data-status="fail"]').textContent()).resolves.toContain(
-      'Nonconforming',
-    )
+    await expect
+      .poll(() => row.locator('[data-status="fail"]').textContent())
+      .toContain('Nonconforming')
     await shootBoth(page, 'review-queue')
     await row.locator('.lot-link').click()
 
     await page.locator('[data-test="review-lot-title"]').waitFor()
     const failingPart = page.locator('.part-card[data-status="fail"]').first()
-    await expect(
-      failingPart.locator('[data-criterion="thickness"][data-status="fail"]').count(),
-    ).resolves.toBe(1)
+    await expect
+      .poll(() => failingPart.locator('[data-criterion="thickness"][data-status="fail"]').count())
+      .toBe(1)
     await expect(
       failingPart.locator('[data-flag="low"]').count(),
       'the low spot is marked in the readings',
@@ -119,9 +119,9 @@ describe('QA review in the browser', () => {
     await expect
       .poll(() => page.locator('[data-test="lot-status"]').textContent(), { timeout: 10_000 })
       .toContain('On hold')
-    await expect(page.locator('[data-test="review-notice"]').textContent()).resolves.toContain(
-      'put on hold',
-    )
+    await expect
+      .poll(() => page.locator('[data-test="review-notice"]').textContent())
+      .toContain('put on hold')
   })
 
   it('gives the nonconformance the disposition "repair and retest"', async () => {
@@ -132,9 +132,9 @@ describe('QA review in the browser', () => {
     await expect
       .poll(() => page.locator('[data-test="nc-title"]').textContent(), { timeout: 10_000 })
       .toBe(number)
-    await expect(page.locator('[data-test="nc-defect"]').textContent()).resolves.toContain(
-      'Thin film',
-    )
+    await expect
+      .poll(() => page.locator('[data-test="nc-defect"]').textContent())
+      .toContain('Thin film')
     await page.locator('[data-test="nc-disposition"] input[value="repair-retest"]').check()
     await page
       .locator('[name="disposition-note"]')
@@ -143,9 +143,9 @@ describe('QA review in the browser', () => {
     await expect
       .poll(() => page.locator('[data-test="nc-status"]').textContent(), { timeout: 10_000 })
       .toContain('Dispositioned')
-    await expect(
-      page.locator('[data-test="nc-current-disposition"]').textContent(),
-    ).resolves.toContain('Repair and retest')
+    await expect
+      .poll(() => page.locator('[data-test="nc-current-disposition"]').textContent())
+      .toContain('Repair and retest')
     await shootBoth(page, 'review-nc')
     nc = (
       await api<NonconformanceRow[]>(supToken, 'GET', `/api/nonconformances?lotId=${lot.id}`)
@@ -165,9 +165,9 @@ describe('QA review in the browser', () => {
     await page.waitForLoadState('networkidle')
     await page.goto(`${BASE_URL}/line/lots/${lot.id}`)
     await page.locator('[data-test="send-to-review"]').click()
-    await expect(
-      page.locator('[data-test="send-to-review-done"]').textContent(),
-    ).resolves.toContain('sent to review')
+    await expect
+      .poll(() => page.locator('[data-test="send-to-review-done"]').textContent())
+      .toContain('sent to review')
     expect(unexpected(op.problems)).toEqual([])
   })
 
@@ -181,7 +181,7 @@ describe('QA review in the browser', () => {
     await page.locator('[data-test="decision-confirm"]').click()
     const blockers = page.locator('[data-test="release-blockers"]')
     await blockers.waitFor()
-    await expect(blockers.textContent()).resolves.toContain(nc.number)
+    await expect.poll(() => blockers.textContent()).toContain(nc.number)
     await screenshot(page, 'review-release-blocked-1440x900', false)
 
     await blockers.getByRole('link', { name: nc.number }).click()
@@ -190,7 +190,9 @@ describe('QA review in the browser', () => {
       .fill('Round 2 re-measured: 5 spots 337–368 µm, holiday test clean; seen on the part')
     await page.locator('[data-test="nc-close"]').click()
     await page.locator('[data-test="nc-closed"]').waitFor()
-    await expect(page.locator('[data-test="nc-status"]').textContent()).resolves.toContain('Closed')
+    await expect
+      .poll(() => page.locator('[data-test="nc-status"]').textContent())
+      .toContain('Closed')
 
     await page.goto(`${BASE_URL}/review/lots/${lot.id}`)
     await page.locator('[data-test="decide-release"]').click()
@@ -233,7 +235,7 @@ describe('QA review in the browser', () => {
       `history has ${order.join(', ')}: ${actions.join(', ')}`,
     ).toBe(true)
     expect([...at].sort((a, b) => a - b)).toEqual(at)
-    await expect(timeline.textContent()).resolves.toContain('Thin film on one spot')
+    await expect.poll(() => timeline.textContent()).toContain('Thin film on one spot')
     await shootBoth(page, 'review-history')
     expect(unexpected(sup.problems)).toEqual([])
   })

@@ -40,16 +40,16 @@ describe('Line health, in the browser', () => {
   it('opens with the filters of the URL and shows every chart', async () => {
     const { page } = b
     await signIn(page, 'manager@harrowgate.example')
-    await expect(
-      page.getByRole('navigation').getByText('Line health', { exact: true }).count(),
-    ).resolves.toBe(1)
+    await expect
+      .poll(() => page.getByRole('navigation').getByText('Line health', { exact: true }).count())
+      .toBe(1)
     await page.goto(`${BASE_URL}/line-health?from=${from}&to=${to}&line=fbe-powder`)
     await page.getByRole('heading', { name: 'Line health' }).waitFor()
     await page.locator('[data-test="trend-capability"]').waitFor()
-    await expect(page.locator('[data-test="filter-from"] input').inputValue()).resolves.toBe(from)
-    await expect(page.locator('[data-test="filter-line"]').textContent()).resolves.toContain(
-      'FBE powder line',
-    )
+    await expect.poll(() => page.locator('[data-test="filter-from"] input').inputValue()).toBe(from)
+    await expect
+      .poll(() => page.locator('[data-test="filter-line"]').textContent())
+      .toContain('FBE powder line')
     for (const card of [
       'trend-yield',
       'trend-pareto',
@@ -58,7 +58,9 @@ describe('Line health, in the browser', () => {
       'trend-holidays',
       'trend-throughput',
     ]) {
-      await expect(page.locator(`[data-test="${card}"] canvas`).count(), card).resolves.toBe(1)
+      await expect
+        .poll(() => page.locator(`[data-test="${card}"] canvas`).count(), { message: card })
+        .toBe(1)
     }
     const reading = await page.locator('[data-test="cap-reading"]').textContent()
     expect(reading).toMatch(/Cp|Cpk|Cpl|Cpu/)
