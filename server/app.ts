@@ -14,6 +14,9 @@ export function createApp() {
   const app = express()
   app.disable('x-powered-by')
   app.set('trust proxy', 'loopback')
+  // No ETag on API answers: nothing revalidates them, and hashing every JSON body costs CPU on
+  // each readings POST. The built client's files keep theirs (express.static sets its own).
+  app.set('etag', false)
   app.use(
     helmet({
       contentSecurityPolicy: {

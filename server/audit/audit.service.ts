@@ -42,22 +42,24 @@ export async function recordAudits(
   t: Transaction,
   events: { actor: AuditActor | null; entry: AuditEntry }[],
 ): Promise<void> {
-  const json = (v: unknown) => {
-    if (v === undefined || v === null) return null // SQL NULL, not JSON null, for "none"
-    return JSON.stringify(plainOf(v), withoutSecrets) // what snapshot() keeps, in one pass
-  }
-  const at = new Date()
+  // One JSON document for the whole statement: pg escapes no array literals, and PostgreSQL
+  // parses each before/after once, as jsonb. A missing or null before/after is SQL NULL ("none").
+  const at = new Date().toISOString()
+  const rows = events.map((e) => ({
+    at,
+    actor_id: e.actor?.id ?? null,
+    actor_email: e.actor?.email ?? null,
+    action: e.entry.action,
+    entity_type: e.entry.entityType,
+    entity_id: String(e.entry.entityId),
+    lot_id: e.entry.lotId ?? null,
+    before: e.entry.before == null ? null : plainOf(e.entry.before),
+    after: e.entry.after == null ? null : plainOf(e.entry.after),
+    note: e.entry.note ?? '',
+  }))
+  // the replacer keeps what snapshot() keeps, in one pass
   await preparedQuery(t, 'audit_events_insert', INSERT_AUDIT_EVENTS, [
-    events.map(() => at),
-    events.map((e) => e.actor?.id ?? null),
-    events.map((e) => e.actor?.email ?? null),
-    events.map((e) => e.entry.action),
-    events.map((e) => e.entry.entityType),
-    events.map((e) => String(e.entry.entityId)),
-    events.map((e) => e.entry.lotId ?? null),
-    events.map((e) => json(e.entry.before)),
-    events.map((e) => json(e.entry.after)),
-    events.map((e) => e.entry.note ?? ''),
+    JSON.stringify(rows, withoutSecrets),
   ])
 }
 
@@ -77,8 +79,9 @@ function withoutSecrets(key: string, value: unknown) {
 const INSERT_AUDIT_EVENTS = `
   INSERT INTO audit_events (at, actor_id, actor_email, action, entity_type, entity_id, lot_id, before, after, note)
   SELECT e.at, e.actor_id, e.actor_email, e.action, e.entity_type, e.entity_id, e.lot_id,
-         e.before::jsonb, e.after::jsonb, e.note
-    FROM unnest($1::timestamptz[], $2::int[], $3::text[], $4::text[], $5::text[], $6::text[],
-                $7::int[], $8::text[], $9::text[], $10::text[]) WITH ORDINALITY
+         e.before, e.after, e.note
+    FROM ROWS FROM (jsonb_to_recordset($1::jsonb)
+           AS (at timestamptz, actor_id int, actor_email text, action text, entity_type text,
+               entity_id text, lot_id int, before jsonb, after jsonb, note text)) WITH ORDINALITY
       AS e(at, actor_id, actor_email, action, entity_type, entity_id, lot_id, before, after, note, n)
    ORDER BY e.n`

@@ -135,20 +135,26 @@ export async function storeVerdicts(
   verdicts: { partId: number; judged: ReturnType<typeof verdictFromRows> }[],
   t: Transaction,
 ): Promise<void> {
+  // One JSON document (the verdicts as objects): no array literal to escape, each verdict parsed
+  // once by PostgreSQL, straight to jsonb.
   await preparedQuery(
     t,
     'parts_verdict_store',
-    `UPDATE parts p SET verdict = v.verdict::jsonb, verdict_status = v.status,
+    `UPDATE parts p SET verdict = v.verdict, verdict_status = v.status,
        thickness_mean_um = v.mean_um,
        first_pass_status = CASE WHEN p.round = 1 THEN v.status ELSE p.first_pass_status END,
        updated_at = now()
-     FROM unnest($1::int[], $2::text[], $3::text[], $4::float8[]) AS v(id, verdict, status, mean_um)
+     FROM jsonb_to_recordset($1::jsonb) AS v(id int, verdict jsonb, status text, mean_um float8)
      WHERE p.id = v.id`,
     [
-      verdicts.map((v) => v.partId),
-      verdicts.map((v) => JSON.stringify(v.judged.verdict)),
-      verdicts.map((v) => v.judged.verdict.status),
-      verdicts.map((v) => v.judged.thicknessMeanUm),
+      JSON.stringify(
+        verdicts.map((v) => ({
+          id: v.partId,
+          verdict: v.judged.verdict,
+          status: v.judged.verdict.status,
+          mean_um: v.judged.thicknessMeanUm,
+        })),
+      ),
     ],
   )
 }
