@@ -8,6 +8,7 @@ import { logger } from './lib/logger'
 import { apiRouters } from './api'
 import { errorHandler, notFoundHandler } from './middleware/errorHandler'
 import { mountBenchBareRoute } from './benchBareRoute'
+import { noteUnicodeEscapes, refuseUnstorableText } from './middleware/storableText'
 
 /** Builds the Express app (no listen): API under /api, the built client for everything else. */
 export function createApp() {
@@ -38,7 +39,7 @@ export function createApp() {
   // yet still build a child logger and its serializers for every request (a tenth of a readings
   // POST's server CPU); nothing else uses req.log.
   if (env.NODE_ENV !== 'test' && logger.isLevelEnabled('info')) app.use(pinoHttp({ logger }))
-  app.use('/api', express.json({ limit: '2mb' }))
+  app.use('/api', express.json({ limit: '2mb', verify: noteUnicodeEscapes }), refuseUnstorableText)
   // BENCHMARK ONLY: the bare yardstick route of npm run bench, never mounted otherwise.
   if (process.env.BENCH_BARE_ROUTE === '1') mountBenchBareRoute(app)
   for (const { basePath, router } of apiRouters) app.use(basePath, router)

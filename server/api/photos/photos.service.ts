@@ -9,6 +9,7 @@ import { env } from '../../config/env'
 import type { PhotoRow } from '../../../shared/api/lots'
 import { assertLotOpen } from '../lots/lotGuards'
 import { checkImage } from './imageCheck'
+import { assertStorableText } from '../../middleware/storableText'
 
 /** Kept in memory (never on disk, never under the uploaded name) until it is in PostgreSQL. */
 const upload = multer({
@@ -72,6 +73,7 @@ export async function uploadPhoto(
   res: Response,
 ): Promise<{ photo: PhotoRow; created: boolean }> {
   await receive(req, res)
+  assertStorableText(req.body, 'body')
   const fields = photoFieldsSchema.safeParse(req.body ?? {})
   if (!fields.success) {
     const issue = fields.error.issues[0]!

@@ -120,6 +120,21 @@ describe('photo uploads refuse what is not a photo, and store nothing of it', ()
     expect(process.memoryUsage().rss - rssBefore).toBeLessThan(300 * 1024 * 1024)
   })
 
+  it('a caption holding a NUL: refused by name, nothing stored', async () => {
+    const before = await Photo.count()
+    const res = await request(app)
+      .post(`/api/parts/${partId}/photos`)
+      .set('Authorization', auth)
+      .field('clientId', uuid())
+      .field('caption', 'Holiday at the\u0000flange')
+      .attach('file', await smallPng(), 'flange.png')
+    expect({ status: res.status, field: res.body.error?.details?.[0]?.field }).toEqual({
+      status: 400,
+      field: 'body.caption',
+    })
+    expect(await Photo.count()).toBe(before)
+  })
+
   it('two files, or the file under another field name', async () => {
     const png = await smallPng()
     const before = await Photo.count()
