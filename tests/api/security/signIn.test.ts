@@ -5,6 +5,7 @@ import { createUser, tokenFor, TEST_PASSWORD } from '../support/fixtures'
 import { LOCK_MINUTES, MAX_FAILED_LOGINS } from '../../../server/api/auth/auth.service'
 import { PASSWORD_MIN_LENGTH } from '../../../shared/api/auth'
 import { User } from '../../../server/db/models'
+import { sequelize } from '../../../server/db'
 
 /** Lockout and password policy (the per-address rate limit is in signInRateLimit.test.ts). */
 const app = createApp()
@@ -46,6 +47,48 @@ describe('account lockout', () => {
     const lockedMinutes = (row!.lockedUntil!.getTime() - Date.now()) / 60000
     expect(lockedMinutes).toBeGreaterThan(LOCK_MINUTES - 1)
     expect(lockedMinutes).toBeLessThanOrEqual(LOCK_MINUTES)
+  })
+
+  it('an address with no account is answered exactly as a real one: the lock does not tell them apart', async () => {
+    const real = await createUser('operator')
+    const unknown = `nobody-${real.id}@harrowgate.example`
+    const answers = async (email: string, times: number) => {
+      const out: { status: number; body: unknown }[] = []
+      for (let i = 0; i < times; i++) {
+        const res = await login(email, `wrong-password-${i}`)
+        out.push({ status: res.status, body: res.body })
+      }
+      return out
+    }
+    const realAnswers = await answers(real.email, MAX_FAILED_LOGINS + 1)
+    expect(realAnswers.map((a) => a.status)).toEqual([
+      ...Array<number>(MAX_FAILED_LOGINS).fill(401),
+      423,
+    ])
+    expect(await answers(unknown, MAX_FAILED_LOGINS + 1)).toEqual(realAnswers)
+    // Once both locks have run out, the count starts again from nothing for both.
+    await sequelize.query(
+      "UPDATE users SET locked_until = now() - interval '1 minute' WHERE id = $1",
+      {
+        bind: [real.id],
+      },
+    )
+    await sequelize.query(
+      "UPDATE sign_in_failures_unknown SET locked_until = now() - interval '1 minute' WHERE email = $1",
+      { bind: [unknown] },
+    )
+    const again = await answers(real.email, MAX_FAILED_LOGINS + 1)
+    expect(again).toEqual(realAnswers)
+    expect(await answers(unknown, MAX_FAILED_LOGINS + 1)).toEqual(again)
+  })
+
+  it('a locked account with the right password answers the same 423 as with a wrong one', async () => {
+    const user = await createUser('operator')
+    await failTimes(user.email, MAX_FAILED_LOGINS)
+    const right = await login(user.email, TEST_PASSWORD)
+    const wrong = await login(user.email, 'wrong-password-x')
+    expect(right.status).toBe(423)
+    expect(right.body).toEqual(wrong.body)
   })
 
   it("another account's failures do not lock this one", async () => {
