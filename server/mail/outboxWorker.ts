@@ -35,6 +35,7 @@ interface ClaimedRow {
   subject: string
   body_text: string
   attempts: number
+  kind: 'certificate' | 'withdrawal'
 }
 
 export class OutboxWorker {
@@ -104,7 +105,7 @@ export class OutboxWorker {
               locked_by = $3, attempts = m.attempts + 1, last_attempt_at = now(), updated_at = now()
          FROM due WHERE m.id = due.id
        RETURNING m.id, m.certificate_id, m.recipient_name, m.recipient_email, m.subject,
-                 m.body_text, m.attempts`,
+                 m.body_text, m.attempts, m.kind`,
       {
         bind: [this.batchSize, this.leaseMs / 1000, this.workerId],
         type: QueryTypes.SELECT,
@@ -117,7 +118,9 @@ export class OutboxWorker {
       'SELECT number, state, pdf FROM certificates WHERE id = $1',
       { bind: [row.certificate_id], type: QueryTypes.SELECT },
     )
-    if (!cert || cert.state !== 'valid') {
+    // A withdrawal notice goes out whatever the state; it carries no PDF.
+    const notice = row.kind === 'withdrawal'
+    if (!notice && (!cert || cert.state !== 'valid')) {
       // Withdrawn or replaced before it went out: sending it now would mislead the customer.
       await this.finish(
         row,
@@ -132,13 +135,15 @@ export class OutboxWorker {
         to: { name: row.recipient_name, address: row.recipient_email },
         subject: row.subject,
         text: row.body_text,
-        attachments: [
-          {
-            filename: `certificate-${cert.number}.pdf`,
-            content: Buffer.from(cert.pdf),
-            contentType: 'application/pdf',
-          },
-        ],
+        attachments: notice
+          ? []
+          : [
+              {
+                filename: `certificate-${cert!.number}.pdf`,
+                content: Buffer.from(cert!.pdf),
+                contentType: 'application/pdf',
+              },
+            ],
       })
       await sequelize.query(
         `UPDATE mail_outbox SET status = 'sent', sent_at = now(), message_id = $3, last_error = NULL,
@@ -146,7 +151,10 @@ export class OutboxWorker {
           WHERE id = $1 AND locked_by = $2 AND status = 'sending'`,
         { bind: [row.id, this.workerId, messageId] },
       )
-      this.log.info({ outboxId: row.id, to: row.recipient_email }, 'certificate e-mail sent')
+      this.log.info(
+        { outboxId: row.id, to: row.recipient_email, kind: row.kind },
+        'certificate e-mail sent',
+      )
     } catch (err) {
       const message = err instanceof Error ? err.message : String(err)
       const giveUp = row.attempts >= this.retry.maxAttempts

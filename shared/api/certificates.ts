@@ -29,6 +29,8 @@ export const reissueSchema = reasonSchema.extend({ kind: z.enum(CERTIFICATE_KIND
 
 export type CertificateState = 'valid' | 'superseded' | 'revoked'
 export type DeliveryState = 'queued' | 'sent' | 'failed'
+/** The certificate itself (PDF attached), or the notice sent when it is withdrawn. */
+export type DeliveryKind = 'certificate' | 'withdrawal'
 
 /** Everything the PDF shows; built by the server from the released lot, rendered by server/pdf. */
 export interface CertificateData {
@@ -55,12 +57,23 @@ export interface CertificateData {
     thickness: { n: number; minUm: number; meanUm: number; maxUm: number } | null
     verdict: string
   }[]
-  surfacePrep: { gradeRequired: string; gradesRecorded: string; profileBand: string; profileRecorded: string } | null
+  surfacePrep: {
+    gradeRequired: string
+    gradesRecorded: string
+    profileBand: string
+    profileRecorded: string
+  } | null
   climate: { summary: string } | null
   holiday: { method: string; voltage: string; result: string } | null
   cure: string[]
   adhesion: string[]
-  nonconformances: { number: string; defect: string; disposition: string; concessionRef: string | null; closed: boolean }[]
+  nonconformances: {
+    number: string
+    defect: string
+    disposition: string
+    concessionRef: string | null
+    closed: boolean
+  }[]
   statement: string
   inspectedBy: { name: string; date: string }[]
   approvedBy: { name: string; date: string }
@@ -111,6 +124,7 @@ export interface CertificateRow {
 
 export interface DeliveryRow {
   id: number
+  kind: DeliveryKind
   recipientName: string
   recipientEmail: string
   state: DeliveryState
@@ -164,5 +178,12 @@ export interface VerifyResult {
 }
 
 /** Who reads certificates: QA, the plant manager, the administrator, and customers (their own). */
-export const CERTIFICATE_STAFF = ['supervisor', 'manager', 'admin'] as const satisfies readonly Role[]
-export const CERTIFICATE_READERS = [...CERTIFICATE_STAFF, 'customer'] as const satisfies readonly Role[]
+export const CERTIFICATE_STAFF = [
+  'supervisor',
+  'manager',
+  'admin',
+] as const satisfies readonly Role[]
+export const CERTIFICATE_READERS = [
+  ...CERTIFICATE_STAFF,
+  'customer',
+] as const satisfies readonly Role[]

@@ -1,4 +1,7 @@
-/** The certificate e-mail: one outbox row per certificate contact, in the caller's transaction. */
+/**
+ * The certificate e-mail (one outbox row per certificate contact) and, on withdrawal, the notice to
+ * those it was sent to; both queued in the caller's transaction.
+ */
 import { QueryTypes, type Transaction } from 'sequelize'
 import { sequelize } from '../../db'
 import type { CertificateData } from '../../../shared/api/certificates'
@@ -64,7 +67,60 @@ export async function queueCertificateMail(
 export async function cancelQueuedMail(certificateId: number, why: string, t: Transaction) {
   await sequelize.query(
     `UPDATE mail_outbox SET status = 'failed', last_error = $2, updated_at = now()
-      WHERE certificate_id = $1 AND status = 'queued'`,
+      WHERE certificate_id = $1 AND status = 'queued' AND kind = 'certificate'`,
     { bind: [certificateId, why], transaction: t },
   )
+}
+
+export function withdrawalMailText(
+  data: CertificateData,
+  recipientName: string,
+  reason: string,
+): { subject: string; text: string } {
+  const subject = `Certificate of conformance ${data.number} withdrawn — lot ${data.lotNumber}, order ${data.orderRef}`
+  const lines = [
+    `Hello ${recipientName},`,
+    '',
+    `Certificate of conformance ${data.number} from ${data.issuer.name}, which we sent you for lot ` +
+      `${data.lotNumber} (your order ${data.orderRef}), has been withdrawn and is no longer valid.`,
+    '',
+    `Reason: ${reason}`,
+    '',
+    'Please do not rely on it. Its check page now shows it as withdrawn:',
+    data.verifyUrl,
+    '',
+    `Sent by Filmtrail for ${data.issuer.name}. Replies to this address are not read; for questions ` +
+      'please contact the plant’s quality office.',
+  ]
+  return { subject, text: lines.join('\n') }
+}
+
+/**
+ * On withdrawal: a notice for each address the certificate went to (or was going out to at that
+ * moment), once per address. Answers how many were queued.
+ */
+export async function queueWithdrawalNotices(
+  certificateId: number,
+  data: CertificateData,
+  reason: string,
+  t: Transaction,
+): Promise<number> {
+  const holders = await sequelize.query<{ contact_id: number | null; name: string; email: string }>(
+    `SELECT DISTINCT ON (lower(recipient_email)) contact_id, recipient_name AS name,
+            recipient_email AS email
+       FROM mail_outbox
+      WHERE certificate_id = $1 AND kind = 'certificate' AND status IN ('sent', 'sending')
+      ORDER BY lower(recipient_email), id DESC`,
+    { bind: [certificateId], type: QueryTypes.SELECT, transaction: t },
+  )
+  for (const h of holders) {
+    const { subject, text } = withdrawalMailText(data, h.name, reason)
+    await sequelize.query(
+      `INSERT INTO mail_outbox
+         (certificate_id, contact_id, recipient_name, recipient_email, subject, body_text, kind)
+       VALUES ($1, $2, $3, $4, $5, $6, 'withdrawal')`,
+      { bind: [certificateId, h.contact_id, h.name, h.email, subject, text], transaction: t },
+    )
+  }
+  return holders.length
 }

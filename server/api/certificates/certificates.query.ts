@@ -12,6 +12,7 @@ import type {
   CertificateDetail,
   CertificateRow,
   CertificateState,
+  DeliveryKind,
   DeliveryRow,
   DeliveryState,
   certificateListQuerySchema,
@@ -129,7 +130,7 @@ function deliveryState(status: string): DeliveryState {
 
 async function deliveriesOf(certificateId: number): Promise<DeliveryRow[]> {
   const rows = await sequelize.query<Record<string, unknown>>(
-    `SELECT id, recipient_name, recipient_email, status, attempts, last_error, created_at,
+    `SELECT id, kind, recipient_name, recipient_email, status, attempts, last_error, created_at,
             last_attempt_at, next_attempt_at, sent_at
        FROM mail_outbox WHERE certificate_id = $1 ORDER BY id`,
     { bind: [certificateId], type: QueryTypes.SELECT },
@@ -137,6 +138,7 @@ async function deliveriesOf(certificateId: number): Promise<DeliveryRow[]> {
   const iso = (v: unknown) => (v ? new Date(v as string).toISOString() : null)
   return rows.map((r) => ({
     id: Number(r.id),
+    kind: r.kind as DeliveryKind,
     recipientName: String(r.recipient_name),
     recipientEmail: String(r.recipient_email),
     state: deliveryState(String(r.status)),

@@ -20,7 +20,12 @@ import { specContentFor } from '../lots/specCache'
 import { loadCertificateSource } from './certificateSource'
 import { buildCertificateData } from './certificateData'
 import { newVerifyCode, nextCertificateNumber, verifyUrlFor } from './certificateNumber'
-import { cancelQueuedMail, certificateContacts, queueCertificateMail } from './certificateMail'
+import {
+  cancelQueuedMail,
+  certificateContacts,
+  queueCertificateMail,
+  queueWithdrawalNotices,
+} from './certificateMail'
 
 interface Predecessor {
   id: number
@@ -193,13 +198,14 @@ export async function revokeCertificate(actor: AuditActor, id: number, reason: s
       { transaction: t },
     )
     await cancelQueuedMail(cert.id, 'Not sent: the certificate was withdrawn before it went out', t)
+    const noticesQueued = await queueWithdrawalNotices(cert.id, cert.data, reason, t)
     await recordAudit(t, actor, {
       action: 'certificate.revoke',
       entityType: 'certificate',
       entityId: cert.id,
       lotId: cert.lotId,
       before: { state: 'valid' },
-      after: { state: 'revoked', reason },
+      after: { state: 'revoked', reason, noticesQueued },
       note: `Certificate ${cert.number} withdrawn: ${reason}`,
     })
     return cert.id
@@ -221,7 +227,8 @@ export async function resendCertificate(actor: AuditActor, id: number, deliveryI
       recipient_email: string
     }>(
       `SELECT DISTINCT ON (lower(recipient_email)) id, status, contact_id, recipient_email
-         FROM mail_outbox WHERE certificate_id = $1 ORDER BY lower(recipient_email), id DESC`,
+         FROM mail_outbox WHERE certificate_id = $1 AND kind = 'certificate'
+        ORDER BY lower(recipient_email), id DESC`,
       { bind: [cert.id], type: QueryTypes.SELECT, transaction: t },
     )
     const chosen = deliveryId === undefined ? rows : rows.filter((r) => Number(r.id) === deliveryId)

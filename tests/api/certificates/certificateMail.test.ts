@@ -110,6 +110,59 @@ describe('certificate e-mail outbox', () => {
     expect(after.body.deliveries.map((d: { state: string }) => d.state)).toEqual(['sent', 'sent'])
   })
 
+  it('withdrawing a sent certificate sends each address it went to a notice, once, without the PDF', async () => {
+    const cert = await issued()
+    fake = await startSmtpFake()
+    cleanups.push(() => fake.stop())
+    const worker = workerOn(fake.port, 'w-withdraw')
+    await worker.runOnce()
+    expect(fake.messages).toHaveLength(receiving.length)
+    const reason = 'The lot was coated to an older edition of the spec'
+    const res = await request(app)
+      .post(`/api/certificates/${cert.id}/revoke`)
+      .set('Authorization', w.supervisor.auth)
+      .send({ reason })
+    expect(res.status).toBe(200)
+    const rows = (res.body as CertificateDetail).deliveries!
+    const of = (kind: string) =>
+      rows
+        .filter((d) => d.kind === kind)
+        .map((d) => `${d.recipientEmail} ${d.state}`)
+        .sort()
+    expect(of('certificate')).toEqual([...receiving].sort().map((e) => `${e} sent`))
+    expect(of('withdrawal')).toEqual([...receiving].sort().map((e) => `${e} queued`))
+
+    await worker.runOnce()
+    await worker.runOnce()
+    const notices = fake.messages.slice(receiving.length)
+    expect(fake.envelopes.slice(receiving.length).flat().sort()).toEqual([...receiving].sort())
+    for (const mail of notices) {
+      expect(mail.subject).toBe(
+        `Certificate of conformance ${cert.number} withdrawn — lot ${cert.lotNumber}, order ${cert.orderRef}`,
+      )
+      expect(mail.text).toContain(`Reason: ${reason}`)
+      expect(mail.text).toContain(cert.verifyUrl)
+      expect(mail.attachments).toHaveLength(0)
+    }
+    expect((await outboxOf(cert.id)).every((r) => r.status === 'sent')).toBe(true)
+  })
+
+  it('a certificate withdrawn before its e-mail went out: the e-mail stops and no notice is sent', async () => {
+    const cert = await issued()
+    const res = await request(app)
+      .post(`/api/certificates/${cert.id}/revoke`)
+      .set('Authorization', w.supervisor.auth)
+      .send({ reason: 'Issued to the wrong order by mistake' })
+    expect(res.status).toBe(200)
+    fake = await startSmtpFake()
+    cleanups.push(() => fake.stop())
+    await workerOn(fake.port, 'w-withdraw-early').runOnce()
+    expect(fake.messages).toHaveLength(0)
+    const rows = await outboxOf(cert.id)
+    expect(rows.map((r) => r.status)).toEqual(receiving.map(() => 'failed'))
+    expect(rows.every((r) => r.last_error?.startsWith('Not sent'))).toBe(true)
+  })
+
   it('waits while the SMTP server is down (queued, with the error) and delivers once it is back', async () => {
     const cert = await issued()
     const port = await freePort()
