@@ -66,3 +66,26 @@ describe('sign-in shows the server’s refusal', () => {
     expect(wrapper.get('[data-test="sign-in-error"]').text()).toContain(message)
   })
 })
+
+describe('the password can be shown, by mouse or keyboard, with a name a screen reader reads', () => {
+  it('toggles the field between hidden and shown and says which it will do', async () => {
+    const router = createRouter({
+      history: createMemoryHistory(),
+      routes: [{ path: '/sign-in', name: 'sign-in', component: SignInView }],
+    })
+    await router.push('/sign-in')
+    const wrapper = mountWithVuetify(SignInView, {
+      global: { plugins: [router] },
+      attachTo: document.body,
+    })
+    const input = () => wrapper.get('input[name="password"]').element as HTMLInputElement
+    const toggle = () => wrapper.get('[data-test="password-visibility"]')
+    expect(input().type).toBe('password')
+    expect(toggle().attributes('aria-label')).toBe('Show the password')
+    await toggle().trigger('click')
+    expect(input().type).toBe('text')
+    expect(toggle().attributes('aria-label')).toBe('Hide the password')
+    await toggle().trigger('keydown', { key: 'Enter' })
+    expect(input().type).toBe('password')
+  })
+})
