@@ -131,7 +131,9 @@ describe('tokens after one was accepted and remembered', () => {
   it('refuses it once it expires, though it was accepted a moment before', async () => {
     const token = jwt.sign({ tv: user.tokenVersion }, secret, {
       subject: String(user.id),
-      expiresIn: 1,
+      // exp is whole seconds after a floored iat: 3 leaves at least 2 s of life for the two
+      // accepted calls, even on a loaded machine (1 left as little as a few ms; CI saw a 401).
+      expiresIn: 3,
     })
     expect((await me(`Bearer ${token}`)).status).toBe(200)
     expect((await me(`Bearer ${token}`)).status).toBe(200)
