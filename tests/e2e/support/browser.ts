@@ -46,9 +46,13 @@ export async function openBrowser(
   const problems: string[] = []
   page.on('console', (m) => m.type() === 'error' && problems.push(`console: ${m.text()}`))
   page.on('pageerror', (e) => problems.push(`page error: ${e.message}`))
-  page.on('requestfailed', (r) =>
-    problems.push(`request failed: ${r.url()} ${r.failure()?.errorText ?? ''}`),
-  )
+  page.on('requestfailed', (r) => {
+    const why = r.failure()?.errorText ?? ''
+    // ERR_ABORTED is the browser cancelling a fetch still in flight when the test navigates on
+    // (a user leaving the page does the same); a refused or broken request is still a problem.
+    if (why === 'net::ERR_ABORTED') return
+    problems.push(`request failed: ${r.url()} ${why}`)
+  })
   return {
     context,
     page,
