@@ -16,12 +16,13 @@ export interface AuditEntry {
   note?: string
 }
 
-/** Plain JSON of a model or object, without secrets, for the before/after columns. */
+/**
+ * Plain JSON of a model or object as it is now (a copy: later changes do not reach it), without
+ * secrets, for the before/after columns.
+ */
 export function snapshot(record: unknown): unknown {
   if (record === null || record === undefined) return null
-  const copy = JSON.parse(JSON.stringify(plainOf(record))) as Record<string, unknown>
-  delete copy.passwordHash
-  return copy
+  return JSON.parse(JSON.stringify(plainOf(record), withoutSecrets)) as unknown
 }
 
 /**

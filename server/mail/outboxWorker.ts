@@ -15,7 +15,7 @@ import { QueryTypes } from 'sequelize'
 import { sequelize } from '../db'
 import { logger as rootLogger } from '../lib/logger'
 import { DEFAULT_RETRY, retryDelayMs, type RetryPolicy } from './backoff'
-import type { MailSender } from './transport'
+import type { MailSender, OutgoingMail } from './transport'
 
 export interface OutboxWorkerOptions {
   sender: MailSender
@@ -114,20 +114,29 @@ export class OutboxWorker {
   }
 
   private async deliver(row: ClaimedRow): Promise<void> {
-    const [cert] = await sequelize.query<{ number: string; state: string; pdf: Buffer }>(
-      'SELECT number, state, pdf FROM certificates WHERE id = $1',
-      { bind: [row.certificate_id], type: QueryTypes.SELECT },
-    )
-    // A withdrawal notice goes out whatever the state; it carries no PDF.
-    const notice = row.kind === 'withdrawal'
-    if (!notice && (!cert || cert.state !== 'valid')) {
-      // Withdrawn or replaced before it went out: sending it now would mislead the customer.
-      await this.finish(
-        row,
-        'failed',
-        `Not sent: the certificate was ${cert?.state ?? 'removed'} before it went out`,
+    // A withdrawal notice goes out whatever the certificate's state, and carries no PDF.
+    let attachments: OutgoingMail['attachments'] = []
+    if (row.kind === 'certificate') {
+      const [cert] = await sequelize.query<{ number: string; state: string; pdf: Buffer }>(
+        'SELECT number, state, pdf FROM certificates WHERE id = $1',
+        { bind: [row.certificate_id], type: QueryTypes.SELECT },
       )
-      return
+      if (!cert || cert.state !== 'valid') {
+        // Withdrawn or replaced before it went out: sending it now would mislead the customer.
+        await this.finish(
+          row,
+          'failed',
+          `Not sent: the certificate was ${cert?.state ?? 'removed'} before it went out`,
+        )
+        return
+      }
+      attachments = [
+        {
+          filename: `certificate-${cert.number}.pdf`,
+          content: Buffer.from(cert.pdf),
+          contentType: 'application/pdf',
+        },
+      ]
     }
     try {
       const { messageId } = await this.options.sender.send({
@@ -135,15 +144,7 @@ export class OutboxWorker {
         to: { name: row.recipient_name, address: row.recipient_email },
         subject: row.subject,
         text: row.body_text,
-        attachments: notice
-          ? []
-          : [
-              {
-                filename: `certificate-${cert!.number}.pdf`,
-                content: Buffer.from(cert!.pdf),
-                contentType: 'application/pdf',
-              },
-            ],
+        attachments,
       })
       await sequelize.query(
         `UPDATE mail_outbox SET status = 'sent', sent_at = now(), message_id = $3, last_error = NULL,

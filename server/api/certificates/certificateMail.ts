@@ -4,7 +4,14 @@
  */
 import { QueryTypes, type Transaction } from 'sequelize'
 import { sequelize } from '../../db'
-import type { CertificateData } from '../../../shared/api/certificates'
+import type { CertificateData, DeliveryKind } from '../../../shared/api/certificates'
+
+function signOff(data: CertificateData): string {
+  return (
+    `Sent by Filmtrail for ${data.issuer.name}. Replies to this address are not read; for questions ` +
+    'please contact the plant’s quality office.'
+  )
+}
 
 export function certificateMailText(
   data: CertificateData,
@@ -25,10 +32,27 @@ export function certificateMailText(
     data.verifyUrl,
     'That page also shows the SHA-256 fingerprint of the PDF file; it matches the attachment.',
     '',
-    `Sent by Filmtrail for ${data.issuer.name}. Replies to this address are not read; for questions ` +
-      'please contact the plant’s quality office.',
+    signOff(data),
   )
   return { subject, text: lines.join('\n') }
+}
+
+async function insertOutboxRow(
+  certificateId: number,
+  kind: DeliveryKind,
+  contactId: number | null,
+  name: string,
+  email: string,
+  subject: string,
+  text: string,
+  t: Transaction,
+) {
+  await sequelize.query(
+    `INSERT INTO mail_outbox
+       (certificate_id, kind, contact_id, recipient_name, recipient_email, subject, body_text)
+     VALUES ($1, $2, $3, $4, $5, $6, $7)`,
+    { bind: [certificateId, kind, contactId, name, email, subject, text], transaction: t },
+  )
 }
 
 interface Contact {
@@ -54,11 +78,7 @@ export async function queueCertificateMail(
 ): Promise<number> {
   for (const c of contacts) {
     const { subject, text } = certificateMailText(data, c.name)
-    await sequelize.query(
-      `INSERT INTO mail_outbox (certificate_id, contact_id, recipient_name, recipient_email, subject, body_text)
-       VALUES ($1, $2, $3, $4, $5, $6)`,
-      { bind: [certificateId, c.id, c.name, c.email, subject, text], transaction: t },
-    )
+    await insertOutboxRow(certificateId, 'certificate', c.id, c.name, c.email, subject, text, t)
   }
   return contacts.length
 }
@@ -89,8 +109,7 @@ export function withdrawalMailText(
     'Please do not rely on it. Its check page now shows it as withdrawn:',
     data.verifyUrl,
     '',
-    `Sent by Filmtrail for ${data.issuer.name}. Replies to this address are not read; for questions ` +
-      'please contact the plant’s quality office.',
+    signOff(data),
   ]
   return { subject, text: lines.join('\n') }
 }
@@ -115,11 +134,15 @@ export async function queueWithdrawalNotices(
   )
   for (const h of holders) {
     const { subject, text } = withdrawalMailText(data, h.name, reason)
-    await sequelize.query(
-      `INSERT INTO mail_outbox
-         (certificate_id, contact_id, recipient_name, recipient_email, subject, body_text, kind)
-       VALUES ($1, $2, $3, $4, $5, $6, 'withdrawal')`,
-      { bind: [certificateId, h.contact_id, h.name, h.email, subject, text], transaction: t },
+    await insertOutboxRow(
+      certificateId,
+      'withdrawal',
+      h.contact_id,
+      h.name,
+      h.email,
+      subject,
+      text,
+      t,
     )
   }
   return holders.length

@@ -30,8 +30,8 @@ export const HOSTILE: { label: string; value?: unknown; raw?: string }[] = [
   { label: '""', value: '' },
   { label: 'an impossible date', value: '2026-02-30' },
   { label: 'max int4', value: 2147483647 },
-  // PostgreSQL's text and jsonb cannot hold a NUL; a lone surrogate has no UTF-8 form (both
-  // documented limits of PostgreSQL's text types and of UTF-8, RFC 3629 §3).
+  // PostgreSQL's text and jsonb cannot hold a NUL (PostgreSQL manual, character and JSON types);
+  // a lone surrogate has no UTF-8 form (RFC 3629 §3). Both cited from memory.
   { label: 'a NUL inside text', value: 'Lot\u0000A' },
   { label: 'half a UTF-16 pair', value: 'Lot\ud800A' },
 ]
