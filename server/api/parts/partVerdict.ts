@@ -38,29 +38,37 @@ export async function loadVerdictRows(
   return (await loadVerdictRowsOf([{ id: partId, round }], t)).get(partId)!
 }
 
-/** The same for several parts in one statement (readings POSTs stored together). */
+/** A live reading as the verdict query sends it: [area_no, spot_no, thickness_um, suspect, kind]. */
+type CompactReading = [number, number, number, boolean, ReadingRowInput['instrumentKind']]
+
+/**
+ * The same for several parts in one statement (readings POSTs stored together). Each reading
+ * comes as a JSON array, not an object: PostgreSQL builds arrays about twice as fast as objects
+ * with keys (this query is run for every readings POST and grows with the part's readings), and
+ * the text to parse is shorter. The objects the rules take are built here.
+ */
 export async function loadVerdictRowsOf(
   parts: { id: number; round: number }[],
   t: Transaction,
 ): Promise<Map<number, VerdictRows>> {
   const rows = await preparedQuery<{
     part_id: number
+    round: number
     sections: SectionRowInput[] | null
     carried: SectionName[] | null
-    readings: ReadingRowInput[] | null
+    readings: CompactReading[] | null
   }>(
     t,
     'parts_verdict_rows',
-    `SELECT x.part_id,
+    `SELECT x.part_id, x.round,
        (SELECT json_agg(json_build_object('section', s.section, 'round', s.round, 'data', s.data) ORDER BY s.id)
           FROM (SELECT DISTINCT ON (section) id, section, round, data FROM section_records
                  WHERE part_id = x.part_id AND (round = x.round OR (round < x.round AND section = ANY(
                    COALESCE((SELECT carried_sections FROM parts WHERE id = x.part_id), '{}'))))
                  ORDER BY section, round DESC, id DESC) s) AS sections,
        (SELECT carried_sections FROM parts WHERE id = x.part_id) AS carried,
-       (SELECT json_agg(json_build_object('round', r.round, 'areaNo', r.area_no, 'spotNo', r.spot_no,
-                 'thicknessUm', r.thickness_um, 'discarded', false, 'suspect', r.suspect,
-                 'instrumentKind', i.kind) ORDER BY r.area_no, r.spot_no, r.id)
+       (SELECT json_agg(json_build_array(r.area_no, r.spot_no, r.thickness_um, r.suspect, i.kind)
+                 ORDER BY r.area_no, r.spot_no, r.id)
           FROM gauge_readings r JOIN instruments i ON i.id = r.instrument_id
          WHERE r.part_id = x.part_id AND r.round = x.round AND r.discarded_at IS NULL) AS readings
      FROM unnest($1::int[], $2::int[]) AS x(part_id, round)`,
@@ -71,7 +79,15 @@ export async function loadVerdictRowsOf(
     byPart.set(row.part_id, {
       sections: row.sections ?? [],
       carried: row.carried ?? [],
-      readings: row.readings ?? [],
+      readings: (row.readings ?? []).map(([areaNo, spotNo, thicknessUm, suspect, kind]) => ({
+        round: row.round,
+        areaNo,
+        spotNo,
+        thicknessUm,
+        discarded: false,
+        suspect,
+        instrumentKind: kind,
+      })),
     })
   return byPart
 }
