@@ -37,21 +37,33 @@ export function certificateMailText(
   return { subject, text: lines.join('\n') }
 }
 
-async function insertOutboxRow(
-  certificateId: number,
-  kind: DeliveryKind,
-  contactId: number | null,
-  name: string,
-  email: string,
-  subject: string,
-  text: string,
-  t: Transaction,
-) {
+interface OutboxRow {
+  certificateId: number
+  kind: DeliveryKind
+  contactId: number | null
+  name: string
+  email: string
+  subject: string
+  text: string
+}
+
+async function insertOutboxRow(row: OutboxRow, t: Transaction) {
   await sequelize.query(
     `INSERT INTO mail_outbox
        (certificate_id, kind, contact_id, recipient_name, recipient_email, subject, body_text)
      VALUES ($1, $2, $3, $4, $5, $6, $7)`,
-    { bind: [certificateId, kind, contactId, name, email, subject, text], transaction: t },
+    {
+      bind: [
+        row.certificateId,
+        row.kind,
+        row.contactId,
+        row.name,
+        row.email,
+        row.subject,
+        row.text,
+      ],
+      transaction: t,
+    },
   )
 }
 
@@ -78,7 +90,18 @@ export async function queueCertificateMail(
 ): Promise<number> {
   for (const c of contacts) {
     const { subject, text } = certificateMailText(data, c.name)
-    await insertOutboxRow(certificateId, 'certificate', c.id, c.name, c.email, subject, text, t)
+    await insertOutboxRow(
+      {
+        certificateId,
+        kind: 'certificate',
+        contactId: c.id,
+        name: c.name,
+        email: c.email,
+        subject,
+        text,
+      },
+      t,
+    )
   }
   return contacts.length
 }
@@ -135,13 +158,15 @@ export async function queueWithdrawalNotices(
   for (const h of holders) {
     const { subject, text } = withdrawalMailText(data, h.name, reason)
     await insertOutboxRow(
-      certificateId,
-      'withdrawal',
-      h.contact_id,
-      h.name,
-      h.email,
-      subject,
-      text,
+      {
+        certificateId,
+        kind: 'withdrawal',
+        contactId: h.contact_id,
+        name: h.name,
+        email: h.email,
+        subject,
+        text,
+      },
       t,
     )
   }

@@ -10,9 +10,9 @@ import { reviewWorld, type ReviewWorld } from '../review/reviewSupport'
  * Text PostgreSQL cannot hold: a NUL (its text and jsonb types refuse U+0000, PostgreSQL manual
  * §8.3 and §8.14, section numbers from memory; the 500s the bad-input suite saw before the fix
  * confirm it) and half of a UTF-16 surrogate pair (UTF-8 may not encode U+D800–U+DFFF, RFC 3629
- * §3, from memory). A JSON body
- * can carry either only as a \u escape. The server answers 400 naming the field, before anything
- * is written; it was a 500 halfway through a transaction. A whole pair (an emoji) is text.
+ * §3, from memory). A JSON body can carry either only as a \u escape. The server answers 400
+ * naming the field, before anything is written; it was a 500 halfway through a transaction. A
+ * whole pair (an emoji) is text.
  */
 const app = createApp()
 
