@@ -21,12 +21,12 @@ export function evaluateSurfacePrepCriterion(
     profileMinUm: s.profileMinUm,
     profileMaxUm: s.profileMaxUm,
   }
-  const base = { criterion: 'surface-prep' as const, numbers }
   if (!rec)
     return {
-      ...base,
+      criterion: 'surface-prep',
       status: 'incomplete',
       reason: 'No surface preparation recorded.',
+      numbers,
     }
   const parts: string[] = []
   const statuses: CriterionResult['status'][] = []
@@ -51,12 +51,10 @@ export function evaluateSurfacePrepCriterion(
     { minUm: s.profileMinUm, maxUm: s.profileMaxUm },
     s.replicaOverlapRetest,
   )
-  Object.assign(numbers, {
-    profileMeanUm: num(p.meanUm),
-    profileLowestUm: num(p.minUm),
-    profileHighestUm: num(p.maxUm),
-    profileLocations: rec.profileLocations.length,
-  })
+  numbers.profileMeanUm = num(p.meanUm)
+  numbers.profileLowestUm = num(p.minUm)
+  numbers.profileHighestUm = num(p.maxUm)
+  numbers.profileLocations = rec.profileLocations.length
   statuses.push(p.status)
   if (p.status === 'pass') {
     parts.push(
@@ -64,9 +62,10 @@ export function evaluateSurfacePrepCriterion(
     )
   } else parts.push(...p.reasons)
   return {
-    ...base,
+    criterion: 'surface-prep',
     status: combineStatuses(statuses),
     reason: parts.join(' '),
+    numbers,
   }
 }
 
@@ -91,13 +90,11 @@ export function evaluateClimateCriterion(
     minMarginC: c.minSteelAboveDewPointC,
     maxRelativeHumidityPct: c.maxRelativeHumidityPct,
   })
-  Object.assign(numbers, {
-    airTempC: rec.airTempC,
-    relativeHumidityPct: rec.relativeHumidityPct,
-    steelTempC: rec.steelTempC,
-    dewPointC: r.dewPointC,
-    marginC: r.marginC,
-  })
+  numbers.airTempC = rec.airTempC
+  numbers.relativeHumidityPct = rec.relativeHumidityPct
+  numbers.steelTempC = rec.steelTempC
+  numbers.dewPointC = r.dewPointC
+  numbers.marginC = r.marginC
   const reason = r.pass
     ? `Steel ${rec.steelTempC.toFixed(1)} °C is ${r.marginC.toFixed(2)} °C above the dew point ${r.dewPointC.toFixed(2)} °C (≥ ${c.minSteelAboveDewPointC} °C) at ${rec.relativeHumidityPct} % RH (≤ ${c.maxRelativeHumidityPct} %).`
     : r.reasons.join(' ')
@@ -149,11 +146,9 @@ export function evaluateCureCriterion(
     reason: o.reason,
   })
   if (c.solventRub) {
-    Object.assign(numbers, {
-      minDoubleRubs: c.solventRub.minDoubleRubs,
-      solvent: c.solventRub.solvent,
-      doubleRubs: rec.solventRub?.doubleRubs ?? null,
-    })
+    numbers.minDoubleRubs = c.solventRub.minDoubleRubs
+    numbers.solvent = c.solventRub.solvent
+    numbers.doubleRubs = rec.solventRub?.doubleRubs ?? null
     items.push(
       rec.solventRub
         ? pf(checkSolventRub(c.solventRub, rec.solventRub))
@@ -164,11 +159,9 @@ export function evaluateCureCriterion(
     )
   }
   if (c.dsc) {
-    Object.assign(numbers, {
-      minDeltaTgC: c.dsc.minDeltaTgC,
-      maxDeltaTgC: c.dsc.maxDeltaTgC,
-      deltaTgC: rec.dsc?.deltaTgC ?? null,
-    })
+    numbers.minDeltaTgC = c.dsc.minDeltaTgC
+    numbers.maxDeltaTgC = c.dsc.maxDeltaTgC
+    numbers.deltaTgC = rec.dsc?.deltaTgC ?? null
     items.push(
       rec.dsc
         ? pf(checkDsc(c.dsc, rec.dsc))
@@ -176,11 +169,12 @@ export function evaluateCureCriterion(
     )
   }
   if (c.oven) {
-    Object.assign(numbers, {
-      ...c.oven,
-      ovenTempC: rec.oven?.tempC ?? null,
-      ovenMinutes: rec.oven?.minutes ?? null,
-    })
+    numbers.minTempC = c.oven.minTempC
+    numbers.maxTempC = c.oven.maxTempC
+    numbers.minMinutes = c.oven.minMinutes
+    numbers.maxMinutes = c.oven.maxMinutes
+    numbers.ovenTempC = rec.oven?.tempC ?? null
+    numbers.ovenMinutes = rec.oven?.minutes ?? null
     items.push(
       rec.oven
         ? pf(checkOven(c.oven, rec.oven))
@@ -202,11 +196,9 @@ export function evaluateAdhesionCriterion(
   const items: AdhesionOutcome[] = []
   const numbers: CriterionResult['numbers'] = {}
   if (a.crossCut) {
-    Object.assign(numbers, {
-      crossCutMinGrade: `${a.crossCut.minGrade}${a.crossCut.method}`,
-      crossCutGrade: rec.crossCut?.grade ?? null,
-      percentRemoved: rec.crossCut?.percentRemoved ?? null,
-    })
+    numbers.crossCutMinGrade = `${a.crossCut.minGrade}${a.crossCut.method}`
+    numbers.crossCutGrade = rec.crossCut?.grade ?? null
+    numbers.percentRemoved = rec.crossCut?.percentRemoved ?? null
     items.push(
       rec.crossCut
         ? checkCrossCut(a.crossCut, rec.crossCut)
@@ -214,10 +206,8 @@ export function evaluateAdhesionCriterion(
     )
   }
   if (a.knife) {
-    Object.assign(numbers, {
-      knifeMinRating: a.knife.minRating,
-      knifeRating: rec.knife?.rating ?? null,
-    })
+    numbers.knifeMinRating = a.knife.minRating
+    numbers.knifeRating = rec.knife?.rating ?? null
     items.push(
       rec.knife
         ? checkKnife(a.knife, rec.knife)
@@ -229,10 +219,8 @@ export function evaluateAdhesionCriterion(
   }
   if (a.pullOff) {
     const pulls = rec.pullOff?.pulls ?? []
-    Object.assign(numbers, {
-      pullOffMinMPa: a.pullOff.minMPa,
-      pullOffLowestMPa: pulls.length ? Math.min(...pulls.map((p) => p.valueMPa)) : null,
-    })
+    numbers.pullOffMinMPa = a.pullOff.minMPa
+    numbers.pullOffLowestMPa = pulls.length ? Math.min(...pulls.map((p) => p.valueMPa)) : null
     items.push(checkPullOff(a.pullOff, pulls))
   }
   return summarise('adhesion', items, numbers)

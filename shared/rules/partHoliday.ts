@@ -103,7 +103,9 @@ export function evaluateHolidayCriterion(
   }
   const { unrepaired, notRetested } = openHolidays(rec.holidays)
   const found = rec.holidays.filter((x) => x.found).length
-  Object.assign(numbers, { holidaysFound: found, unrepaired, notRetested })
+  numbers.holidaysFound = found
+  numbers.unrepaired = unrepaired
+  numbers.notRetested = notRetested
   if (unrepaired > 0)
     return out('fail', `${found} holiday(s) found at ${used} V; ${unrepaired} not repaired.`)
   if (notRetested > 0)

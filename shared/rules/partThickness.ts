@@ -41,8 +41,11 @@ export function evaluateThicknessCriterion(
     areas: areasRaw,
     readingCount: flatRaw.length,
   })
-  const base = { criterion: 'thickness' as const }
-  const planNumbers = {
+  // The numbers start as one object literal and grow by plain property stores, in the order a
+  // supervisor reads them (plan, record, then the rule's). Not spread into a new object nor
+  // Object.assign-ed: either made this criterion three times slower (8–10 → 28–35 µs for a part
+  // of 15 readings, bundled, node 20), and it runs on every readings POST.
+  const numbers: CriterionResult['numbers'] = {
     rule: t.rule,
     progress: plan.progress,
     areasRequired: plan.areasRequired,
@@ -53,7 +56,7 @@ export function evaluateThicknessCriterion(
   if (!rec) {
     const reason = `No thickness readings yet. Plan: ${plan.derivation}`
     return {
-      result: { ...base, status: 'incomplete', reason, numbers: planNumbers },
+      result: { criterion: 'thickness', status: 'incomplete', reason, numbers },
       measuredMeanUm: null,
       plan,
     }
@@ -65,12 +68,9 @@ export function evaluateThicknessCriterion(
   }
   const needsBmr = rec.gaugeType === 'type-1' && bmrUm === null
   const correct = (rs: number[]) => (bmrUm === null ? rs : subtractBaseMetalReading(rs, bmrUm))
-  const numbers: CriterionResult['numbers'] = {
-    ...planNumbers,
-    gaugeType: rec.gaugeType,
-    baseMetalReadingUm: num(bmrUm),
-    suspectReadings: rec.suspectReadings === true,
-  }
+  numbers.gaugeType = rec.gaugeType
+  numbers.baseMetalReadingUm = num(bmrUm)
+  numbers.suspectReadings = rec.suspectReadings === true
   let status: 'pass' | 'fail' | 'incomplete'
   let detail: string[]
   let measuredMeanUm: number | null
@@ -87,17 +87,15 @@ export function evaluateThicknessCriterion(
       a.spots.filter((s) => s.status !== 'incomplete').map((s) => s.meanUm),
     )
     measuredMeanUm = spotMeans.length ? mean(spotMeans) : null
-    Object.assign(numbers, {
-      minUm: t.minUm,
-      maxUm: t.maxUm,
-      level: t.pa2Level,
-      spotMinUm: r.spotMinUm,
-      spotMaxUm: r.spotMaxUm,
-      meanUm: num(measuredMeanUm),
-      lowestSpotUm: spotMeans.length ? Math.min(...spotMeans) : null,
-      highestSpotUm: spotMeans.length ? Math.max(...spotMeans) : null,
-      lowestAreaUm: num(Math.min(...r.areas.map((a) => a.meanUm).filter(Number.isFinite))),
-    })
+    numbers.minUm = t.minUm
+    numbers.maxUm = t.maxUm
+    numbers.level = t.pa2Level
+    numbers.spotMinUm = r.spotMinUm
+    numbers.spotMaxUm = r.spotMaxUm
+    numbers.meanUm = num(measuredMeanUm)
+    numbers.lowestSpotUm = spotMeans.length ? Math.min(...spotMeans) : null
+    numbers.highestSpotUm = spotMeans.length ? Math.max(...spotMeans) : null
+    numbers.lowestAreaUm = num(Math.min(...r.areas.map((a) => a.meanUm).filter(Number.isFinite)))
     status =
       r.status === 'incomplete' || (r.status === 'pass' && !plan.complete) ? 'incomplete' : r.status
     detail = r.reasons
@@ -120,17 +118,15 @@ export function evaluateThicknessCriterion(
       displayUnit: unit,
     })
     measuredMeanUm = num(r.meanUm)
-    Object.assign(numbers, {
-      nominalUm: t.minUm,
-      maxAllowedUm: r.maxAllowedUm,
-      floorUm: r.floorUm,
-      profileCorrectionUm: correctionUm,
-      meanUm: num(r.meanUm),
-      lowestUm: num(r.minUm),
-      highestUm: num(r.maxUm),
-      belowNominalShare: num(r.belowNominalShare),
-      inScope: r.inScope,
-    })
+    numbers.nominalUm = t.minUm
+    numbers.maxAllowedUm = r.maxAllowedUm
+    numbers.floorUm = r.floorUm
+    numbers.profileCorrectionUm = correctionUm
+    numbers.meanUm = num(r.meanUm)
+    numbers.lowestUm = num(r.minUm)
+    numbers.highestUm = num(r.maxUm)
+    numbers.belowNominalShare = num(r.belowNominalShare)
+    numbers.inScope = r.inScope
     status =
       r.status === 'fail'
         ? 'fail'
@@ -162,5 +158,5 @@ export function evaluateThicknessCriterion(
     detail.push('The readings recorded so far conform.')
   }
   const reason = [...notes, ...detail].join(' ')
-  return { result: { ...base, status, reason, numbers }, measuredMeanUm, plan }
+  return { result: { criterion: 'thickness', status, reason, numbers }, measuredMeanUm, plan }
 }

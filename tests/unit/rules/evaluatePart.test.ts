@@ -52,6 +52,24 @@ describe('evaluatePart — a complete conforming FBE part', () => {
     expect(v.samplingPlan.derivation).toMatch(/Small part under 100 ft²/)
   })
 
+  it('the numbers a supervisor reads: spots 15, 16, 17, 16, 16 mils → lowest 15, highest 17, area mean 16 [R: SSPC-PA 2 spot = mean of its readings, area = mean of its spots]', () => {
+    const n = statusOf(v, 'thickness').numbers
+    expect(n.lowestSpotUm as number).toBeCloseTo(mil(15), 9)
+    expect(n.highestSpotUm as number).toBeCloseTo(mil(17), 9)
+    expect(n.lowestAreaUm as number).toBeCloseTo(mil(16), 9)
+    expect(n).toMatchObject({
+      rule: 'SSPC-PA2',
+      gaugeType: 'type-1',
+      suspectReadings: false,
+      level: 3,
+      areasRequired: 1,
+      spotsRequired: 5,
+      readingsRequired: 15,
+      readingsRecorded: 15,
+    })
+    expect(n.spotMaxUm as number).toBeCloseTo(mil(24), 9) // level 3: 120 % of the 20 mil maximum
+  })
+
   it('climate numbers: dew point 12.00 °C at 20 °C / 60 % [C]', () => {
     expect(statusOf(v, 'climate').numbers.dewPointC as number).toBeCloseTo(12.0, 2)
   })
@@ -166,6 +184,7 @@ describe('evaluatePart — incomplete and not-required', () => {
     const v = evaluatePart(fbeSpec(), part, input)
     expectOnly(v, 'thickness', 'incomplete')
     expect(statusOf(v, 'thickness').reason).toMatch(/re-measure/)
+    expect(statusOf(v, 'thickness').numbers.suspectReadings).toBe(true)
   })
 
   it('a type-1 gauge without a base metal reading leaves thickness incomplete', () => {
