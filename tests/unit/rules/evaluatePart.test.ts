@@ -62,12 +62,12 @@ describe('evaluatePart — a complete conforming FBE part', () => {
       gaugeType: 'type-1',
       suspectReadings: false,
       level: 3,
-      areasRequired: 1,
-      spotsRequired: 5,
+      areasRequired: 1, // 12 ft², under 100 ft²: one area [R: SSPC-PA 2]
+      spotsRequired: 5, // 5 spots per area [R: SSPC-PA 2]
       readingsRequired: 15,
       readingsRecorded: 15,
     })
-    expect(n.spotMaxUm as number).toBeCloseTo(mil(24), 9) // level 3: 120 % of the 20 mil maximum
+    expect(n.spotMaxUm as number).toBeCloseTo(mil(24), 9) // level 3: 120 % of the 20 mil maximum [M: level factors from memory, as shared/rules/pa2.ts says]
   })
 
   it('climate numbers: dew point 12.00 °C at 20 °C / 60 % [C]', () => {
